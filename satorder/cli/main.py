@@ -1,0 +1,64 @@
+"""``satorder`` entry point: parses the command line and dispatches to one command module.
+
+Exit status: 0 answered, 2 bad input or usage, 3 no answer within the time limit (status
+``unknown``), 1 internal error (an answer failed its certificate check), 130 interrupted.
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import sys
+
+from ..errors import CertificateError, InputError
+from .common import err
+
+# one module per command; each has add_parser(subparsers) and run(args) -> int
+COMMANDS = ["solve", "demo"]
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message):  # one line, exit status 2
+        err.print(f"satorder: error: {message} (see 'satorder --help')", markup=False)
+        raise SystemExit(2)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(
+        prog="satorder",
+        description="Turn pairwise evidence about items into a certified partial order, "
+        "or a checkable reason why none exists.",
+    )
+    from .. import __version__
+
+    parser.add_argument("--version", action="version", version=f"satorder {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+    sub.required = True
+    for name in COMMANDS:
+        module = importlib.import_module(f".{name}", __package__)
+        p = module.add_parser(sub)
+        p.set_defaults(run=module.run)
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    try:
+        return int(args.run(args) or 0)
+    except InputError as exc:
+        err.print(f"satorder: error: {exc}", markup=False)
+        return 2
+    except CertificateError as exc:
+        err.print(f"satorder: internal error: an answer failed its check: {exc}", markup=False)
+        return 1
+    except KeyboardInterrupt:
+        err.print("satorder: interrupted", markup=False)
+        return 130
+    except BrokenPipeError:
+        sys.stderr.close()
+        return 0
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())

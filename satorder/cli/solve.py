@@ -1,0 +1,35 @@
+"""``satorder solve FILE``: find an order meeting every requirement, or show none exists."""
+
+from __future__ import annotations
+
+from ..solve import ENGINES, solve
+from ..render import print_answer
+from .common import atomic_write, check_output_path, dumps, load, out, print_json
+
+
+def add_parser(sub):
+    p = sub.add_parser("solve", help="find a certified order, or show that none exists",
+                       description=__doc__)
+    p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
+    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
+    p.add_argument("--out", metavar="FILE", help="also write the JSON answer to FILE")
+    p.add_argument("--engine", choices=ENGINES, default="auto",
+                   help="forcing (plain problems), sat, both (cross-check), auto (default)")
+    p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
+    p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
+                   help="give status unknown instead of running longer")
+    return p
+
+
+def run(args) -> int:
+    check_output_path(args.out, args.file)
+    problem = load(args.file)
+    ans = solve(problem, engine=args.engine, solver=args.solver, time_limit=args.time_limit)
+    doc = ans.to_json() if (args.json or args.out) else None
+    if args.out:
+        atomic_write(args.out, dumps(doc))
+    if args.json:
+        print_json(doc)
+    else:
+        print_answer(ans, out, hint_file=args.file)
+    return 3 if ans.status == "unknown" else 0

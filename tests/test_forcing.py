@@ -1,0 +1,96 @@
+"""The forcing algorithm against brute force and published facts."""
+
+from __future__ import annotations
+
+import random
+
+import networkx as nx
+import pytest
+from conftest import all_graphs, brute_force_orientable
+
+from satorder import Problem, certify
+from satorder.errors import CertificateError
+from satorder.forcing import transitive_orientation
+from satorder.solve import solve
+
+
+def _check(g: nx.Graph) -> bool:
+    """Run forcing on g; certify whichever answer it gives; return its verdict."""
+    p = Problem.from_networkx(g)
+    res = transitive_orientation(p.adj)
+    if res.orientable:
+        certify.check_order(p, res.successor_sets())
+    else:
+        certify.check_forcing_chain(p, res.chain)
+    return res.orientable
+
+
+@pytest.mark.parametrize("n", [1, 2, 3, 4, 5])
+def test_every_small_graph_matches_brute_force(n):
+    for g in all_graphs(n):
+        assert _check(g) == brute_force_orientable(g), sorted(g.edges())
+
+
+def test_random_graphs_up_to_nine_items_match_brute_force():
+    rnd = random.Random(20261201)
+    for _ in range(300):
+        n = rnd.randint(6, 9)
+        g = nx.gnp_random_graph(n, rnd.uniform(0.2, 0.8), seed=rnd.randrange(1 << 30))
+        if g.number_of_edges() > 16:  # brute force is 2^m; keep it bounded
+            continue
+        assert _check(g) == brute_force_orientable(g), sorted(g.edges())
+
+
+@pytest.mark.parametrize("k", [5, 7, 9, 11])
+def test_odd_cycles_are_not_comparability_graphs(k):
+    # Golumbic 1980, ch. 5: an odd cycle of length >= 5 has no transitive orientation.
+    assert not _check(nx.cycle_graph(k))
+
+
+@pytest.mark.parametrize("k", [4, 6, 8, 20])
+def test_even_cycles_are_comparability_graphs(k):
+    # Golumbic 1980, ch. 5: bipartite graphs, even cycles included, are comparability graphs.
+    assert _check(nx.cycle_graph(k))
+
+
+def test_random_bipartite_graphs_are_comparability_graphs():
+    # Golumbic 1980, ch. 5: every bipartite graph is a comparability graph (orient side A -> B).
+    for seed in range(20):
+        g = nx.bipartite.random_graph(15, 20, 0.3, seed=seed)
+        assert _check(g)
+
+
+def test_complements_of_interval_graphs_are_comparability_graphs():
+    # Gilmore & Hoffman 1964: the complement of an interval graph is a comparability graph.
+    rnd = random.Random(5)
+    for _ in range(30):
+        intervals = []
+        for _ in range(rnd.randint(3, 25)):
+            a = rnd.uniform(0, 10)
+            intervals.append((a, a + rnd.uniform(0, 3)))
+        g = nx.complement(nx.interval_graph(intervals))
+        assert _check(g)
+
+
+@pytest.mark.parametrize("n", [1, 2, 5, 9])
+def test_complete_graph_orientation_is_a_linear_order(n):
+    # Common practice: every transitive orientation of K_n is a linear order of its n items.
+    ans = solve(Problem.from_networkx(nx.complete_graph(n)))
+    assert ans.verified
+    heights = sorted(len(s) for s in ans.succ)
+    assert heights == list(range(n))
+
+
+def test_triangular_prism_has_a_forcing_conflict():
+    # complement of C6; no transitive orientation (Gallai 1967; brute force confirms here)
+    g = nx.complement(nx.cycle_graph(6))
+    assert not brute_force_orientable(g)
+    assert not _check(g)
+
+
+def test_a_wrong_chain_fails_its_check():
+    p = Problem.from_networkx(nx.cycle_graph(5))
+    chain = transitive_orientation(p.adj).chain
+    broken = list(chain[:-1])  # drop the closing step: no longer ends in the reverse
+    with pytest.raises(CertificateError):
+        certify.check_forcing_chain(p, broken)
