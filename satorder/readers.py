@@ -102,7 +102,8 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
     for key in doc:
         if key not in JSON_KEYS:
             near = difflib.get_close_matches(key, JSON_KEYS, n=1)
-            hint = f'; did you mean "{near[0]}"?' if near else f"; valid keys: {', '.join(JSON_KEYS)}"
+            valid = ", ".join(JSON_KEYS)
+            hint = f'; did you mean "{near[0]}"?' if near else f"; valid keys: {valid}"
             raise InputError(f'{source}: unknown key "{key}"{hint}')
     version = doc.get("version", 1)
     if version != 1:

@@ -2,8 +2,8 @@
 
 from __future__ import annotations
 
-from ..solve import ENGINES, solve
 from ..render import print_answer
+from ..solve import ENGINES, solve
 from .common import atomic_write, check_output_path, dumps, load, out, print_json
 
 
