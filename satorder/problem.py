@@ -224,9 +224,9 @@ class ProblemBuilder:
         self.index: dict[str, int] = {}
         self.adj: list[set[int]] = []
         self.incomp: list[set[int]] | None = None
-        self.fixed: dict[Arc, str] = {}
-        self.forbidden: dict[Arc, str] = {}
-        self.prefer: list[tuple[int, int, int]] = []
+        self._fixed: dict[Arc, str] = {}
+        self._forbidden: dict[Arc, str] = {}
+        self._prefer: list[tuple[int, int, int]] = []
         self.weights: dict[int, int] | None = None
         self._comp_where: dict[Arc, str] = {}
         self._incomp_where: dict[Arc, str] = {}
@@ -286,15 +286,15 @@ class ProblemBuilder:
 
     def fixed(self, a, b, where: str) -> None:
         i, j = self._pair(a, b, where)
-        if (j, i) in self.fixed:
+        if (j, i) in self._fixed:
             raise self.error(
                 where, f"fixed arc {a!r} before {b!r} is also fixed the other way at "
-                f"{self.fixed[(j, i)]}; keep one direction"
+                f"{self._fixed[(j, i)]}; keep one direction"
             )
-        if (i, j) in self.forbidden:
+        if (i, j) in self._forbidden:
             raise self.error(
                 where, f"arc {a!r} before {b!r} is both fixed and forbidden "
-                f"(at {self.forbidden[(i, j)]}); keep one"
+                f"(at {self._forbidden[(i, j)]}); keep one"
             )
         key = (min(i, j), max(i, j))
         other = self._incomp_where.get(key)
@@ -303,7 +303,7 @@ class ProblemBuilder:
                 where, f"fixed arc {a!r} before {b!r} is on a pair listed at {other} as "
                 "incomparable; remove one of them"
             )
-        self.fixed.setdefault((i, j), where)
+        self._fixed.setdefault((i, j), where)
         # a fixed arc makes its pair comparable
         self.adj[i].add(j)
         self.adj[j].add(i)
@@ -311,18 +311,18 @@ class ProblemBuilder:
 
     def forbidden(self, a, b, where: str) -> None:
         i, j = self._pair(a, b, where)
-        if (i, j) in self.fixed:
+        if (i, j) in self._fixed:
             raise self.error(
                 where, f"arc {a!r} before {b!r} is both forbidden and fixed "
-                f"(at {self.fixed[(i, j)]}); keep one"
+                f"(at {self._fixed[(i, j)]}); keep one"
             )
-        self.forbidden.setdefault((i, j), where)
+        self._forbidden.setdefault((i, j), where)
 
     def prefer(self, a, b, w, where: str) -> None:
         i, j = self._pair(a, b, where)
         if isinstance(w, bool) or not isinstance(w, int) or w <= 0:
             raise self.error(where, f"weight must be a positive integer, got {w!r}")
-        self.prefer.append((i, j, w))
+        self._prefer.append((i, j, w))
 
     def weight(self, name, w, where: str) -> None:
         i = self.item(name, where)
@@ -337,9 +337,9 @@ class ProblemBuilder:
             items=self.items,
             adj=self.adj,
             incomparable=self.incomp,
-            fixed=list(self.fixed),
-            forbidden=list(self.forbidden),
-            prefer=self.prefer,
+            fixed=list(self._fixed),
+            forbidden=list(self._forbidden),
+            prefer=self._prefer,
             weights=self.weights,
             source=self.source,
         )

@@ -13,7 +13,7 @@ from ..errors import InputError
 from ..readers import read_problem
 
 out = Console(highlight=False, soft_wrap=True)
-err = Console(stderr=True, highlight=False)
+err = Console(stderr=True, highlight=False, soft_wrap=True)
 
 
 class UsageError(InputError):

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import argparse
 import importlib
+import os
 import sys
 
 from ..errors import CertificateError, InputError
@@ -58,6 +59,12 @@ def main(argv: list[str] | None = None) -> int:
     except BrokenPipeError:
         sys.stderr.close()
         return 0
+    except Exception as exc:  # a bug: one line for users, the traceback on request
+        if os.environ.get("SATORDER_DEBUG"):
+            raise
+        err.print(f"satorder: internal error: {type(exc).__name__}: {exc} "
+                  "(rerun with SATORDER_DEBUG=1 for details and please report it)", markup=False)
+        return 1
 
 
 if __name__ == "__main__":

@@ -1,0 +1,157 @@
+"""`satorder solve` and the readers: JSON contract, exit codes, every bad-input case."""
+
+from __future__ import annotations
+
+import json
+import os
+import subprocess
+import sys
+
+import pytest
+
+from satorder import InputError, read_problem
+from satorder.cli.main import main
+
+
+def run(*args, cwd=None):
+    """Run the CLI in a subprocess (so exit codes and stderr are exactly what users see)."""
+    proc = subprocess.run(
+        [sys.executable, "-m", "satorder", *args], capture_output=True, text=True, cwd=cwd
+    )
+    return proc.returncode, proc.stdout, proc.stderr
+
+
+def write(tmp_path, name, content, mode="w"):
+    path = tmp_path / name
+    if mode == "wb":
+        path.write_bytes(content)
+    else:
+        path.write_text(content)
+    return str(path)
+
+
+def test_json_contract_for_a_feasible_edge_list(tmp_path):
+    f = write(tmp_path, "g.txt", "# a path\nkiln loom\nloom quay\n")
+    code, out, err = run("solve", f, "--json")
+    assert code == 0, err
+    doc = json.loads(out)
+    assert doc["status"] == "feasible"
+    order = {tuple(p) for p in doc["order"]}
+    # a plain graph's answer is exactly its edges, oriented
+    assert {frozenset(p) for p in order} == {frozenset(("kiln", "loom")), frozenset(("loom", "quay"))}
+    assert len(order) == 2 and doc["verified"] is True
+
+
+def test_json_contract_for_an_infeasible_cycle(tmp_path):
+    f = write(tmp_path, "c5.txt", "a b\nb c\nc d\nd e\ne a\n")
+    code, out, _ = run("solve", f, "--json")
+    assert code == 0
+    doc = json.loads(out)
+    assert doc["status"] == "infeasible" and "order" not in doc
+    chain = doc["conflict"]
+    assert chain[-1]["arc"] == chain[0]["arc"][::-1]
+    assert all(step["because"] for step in chain[1:])
+
+
+def test_human_output_shows_chain_and_points_to_explain(tmp_path):
+    f = write(tmp_path, "c5.txt", "a b\nb c\nc d\nd e\ne a\n")
+    code, out, _ = run("solve", f)
+    assert code == 0
+    assert "INFEASIBLE" in out and "reverse of step 1" in out and "explain" in out
+
+
+def test_out_file_is_written_whole(tmp_path):
+    f = write(tmp_path, "g.json", json.dumps({"comparable": [["x", "y"]]}))
+    target = tmp_path / "answer.json"
+    code, out, _ = run("solve", f, "--out", str(target))
+    assert code == 0 and "FEASIBLE" in out
+    assert json.loads(target.read_text())["status"] == "feasible"
+    assert [p for p in os.listdir(tmp_path) if p.endswith(".tmp")] == []
+
+
+def test_graph6_reader(tmp_path):
+    import networkx as nx
+
+    f = write(tmp_path, "c6.g6", nx.to_graph6_bytes(nx.cycle_graph(6), header=False).decode())
+    p = read_problem(f)
+    assert p.n == 6 and p.num_comparable == 6
+
+
+BAD = [
+    ("bad.json", '{"comparable": [["a", "b"],]}', "line 1 column"),
+    ("key.json", '{"comparables": [["a", "b"]]}', 'did you mean "comparable"'),
+    ("twice.json", '{"comparable": [["a", "a"]]}', "twice"),
+    ("both.json", '{"comparable": [["a", "b"]], "incomparable": [["b", "a"]]}',
+     "incomparable[0]"),
+    ("fixed2.json", '{"fixed": [["a", "b"], ["b", "a"]]}', "fixed[1]"),
+    ("fixinc.json", '{"fixed": [["a", "b"]], "incomparable": [["a", "b"]]}', "fixed[0]"),
+    ("weight.json", '{"prefer": [{"before": "a", "after": "b", "weight": 0}]}', "positive"),
+    ("weight2.json", '{"prefer": [{"before": "a", "after": "b", "weight": 1.5}]}', "positive"),
+    ("empty.txt", "", "empty"),
+    ("blank.json", "   \n", "empty"),
+    ("one.txt", "a b\nc\n", "line 2"),
+    ("three.txt", "a b\nc d e\n", "line 2"),
+    ("loop.txt", "a b\nc c\n", "line 2"),
+    ("top.json", "[1, 2]", "top level"),
+    ("incstr.json", '{"incomparable": "all"}', '"others"'),
+    ("pairshape.json", '{"comparable": [["a", "b", "c"]]}', "comparable[0]"),
+    ("prefkey.json", '{"prefer": [{"before": "a", "after": "b", "wieght": 2}]}', "weight"),
+]
+
+
+@pytest.mark.parametrize("name,content,needle", BAD, ids=[b[0] for b in BAD])
+def test_bad_input_gives_one_line_and_exit_2(tmp_path, name, content, needle):
+    f = write(tmp_path, name, content)
+    code, out, err = run("solve", f, "--json")
+    assert code == 2
+    assert out == ""
+    assert "Traceback" not in err
+    assert len(err.strip().splitlines()) == 1, err
+    assert needle in err and name in err
+
+
+def test_binary_and_missing_files(tmp_path):
+    f = write(tmp_path, "blob.bin", b"\x00\x01\x02abc", mode="wb")
+    code, _, err = run("solve", f)
+    assert code == 2 and "binary" in err
+    code, _, err = run("solve", str(tmp_path / "nope.txt"))
+    assert code == 2 and "no such file" in err
+
+
+def test_failed_run_leaves_existing_output_untouched(tmp_path):
+    target = tmp_path / "answer.json"
+    target.write_text("precious")
+    f = write(tmp_path, "bad.json", "{")
+    code, _, _ = run("solve", f, "--out", str(target))
+    assert code == 2 and target.read_text() == "precious"
+
+
+def test_usage_errors_exit_2(tmp_path):
+    assert run("solve")[0] == 2
+    assert run("frobnicate")[0] == 2
+    f = write(tmp_path, "g.txt", "a b\n")
+    assert run("solve", f, "--engine", "magic")[0] == 2
+    assert run("solve", f, "--out", f)[0] == 2  # would overwrite the input
+
+
+def test_in_process_main_returns_codes(tmp_path, capsys):
+    f = write(tmp_path, "g.txt", "a b\n")
+    assert main(["solve", f, "--json"]) == 0
+    assert json.loads(capsys.readouterr().out)["status"] == "feasible"
+
+
+def test_python_api_builders_validate():
+    import networkx as nx
+
+    from satorder import Problem, solve
+
+    with pytest.raises(InputError):
+        Problem.from_lists(comparable=[("a", "b")], incomparable=[("a", "b")])
+    p = Problem.from_networkx(nx.path_graph(4))
+    assert solve(p).to_networkx().number_of_edges() == 3
+
+
+def test_demo_runs():
+    code, out, err = run("demo")
+    assert code == 0, err
+    assert "FEASIBLE" in out
