@@ -136,8 +136,8 @@ def check_hasse(succ, hasse) -> None:
         for b in sa:
             covers = sa.isdisjoint(pred[b])
             if covers != ((a, b) in got):
-                raise CertificateError(f"pair {a} < {b} is wrongly {'missing from' if covers else 'in'}"
-                                       " the Hasse diagram")
+                where = "missing from" if covers else "in"
+                raise CertificateError(f"pair {a} < {b} is wrongly {where} the Hasse diagram")
     for a, b in got:
         if b not in succ[a]:
             raise CertificateError(f"Hasse pair {a}, {b} is not an ordered pair")

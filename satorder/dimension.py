@@ -38,8 +38,6 @@ import random
 import time
 from dataclasses import dataclass, field
 
-import numpy as np
-
 #: largest incomparability graph (pairs) built for the exact dimension-2 test of one part
 MAX_INCOMPARABLE_PAIRS = 3_000_000
 
@@ -86,7 +84,7 @@ class Dimension:
 
 # ---------------------------------------------------------------- series / parallel splitting
 
-def _components(items: list[int], nbrs, mark: np.ndarray, tag: int) -> list[list[int]]:
+def _components(items: list[int], succ, pred, mark: list[int], tag: int) -> list[list[int]]:
     """Connected components of the comparability graph induced on ``items``
     (``mark[x] == tag`` exactly for members)."""
     seen = set()
@@ -99,16 +97,17 @@ def _components(items: list[int], nbrs, mark: np.ndarray, tag: int) -> list[list
         stack = [x]
         while stack:
             v = stack.pop()
-            for u in nbrs(v):
-                if mark[u] == tag and u not in seen:
-                    seen.add(u)
-                    comp.append(u)
-                    stack.append(u)
+            for nb in (succ[v], pred[v]):
+                for u in nb:
+                    if mark[u] == tag and u not in seen:
+                        seen.add(u)
+                        comp.append(u)
+                        stack.append(u)
         comps.append(comp)
     return comps
 
 
-def _co_components(items: list[int], nbrs, mark: np.ndarray, tag: int) -> list[list[int]]:
+def _co_components(items: list[int], succ, pred, mark: list[int], tag: int) -> list[list[int]]:
     """Connected components of the complement of the induced comparability graph, without
     building it: each step keeps only the unvisited items adjacent to the current one."""
     unvisited = set(items)
@@ -119,7 +118,8 @@ def _co_components(items: list[int], nbrs, mark: np.ndarray, tag: int) -> list[l
         stack = [x]
         while stack:
             v = stack.pop()
-            keep = {u for u in nbrs(v) if mark[u] == tag and u in unvisited}
+            keep = {u for u in succ[v] if u in unvisited}
+            keep.update(u for u in pred[v] if u in unvisited)
             found = unvisited - keep
             unvisited = keep
             comp.extend(found)
@@ -392,13 +392,9 @@ def dimension(succ: list[set[int]], sat_limit: int = 40,
         for b in s:
             pred[b].add(a)
 
-    def nbrs(v):
-        yield from succ[v]
-        yield from pred[v]
-
     deadline = None if time_limit is None else t0 + time_limit
     notes: list[str] = []
-    mark = np.full(n, -1, dtype=np.int64)
+    mark = [-1] * n
     tag = 0
     counts = {"parallel": 0, "series": 0, "parts": 0}
 
@@ -411,18 +407,18 @@ def dimension(succ: list[set[int]], sat_limit: int = 40,
             _join(node)
             continue
         tag += 1
-        mark[items] = tag
-        comps = _components(items, nbrs, mark, tag)
+        for x in items:
+            mark[x] = tag
+        comps = _components(items, succ, pred, mark, tag)
         if len(comps) > 1:
             node["kind"] = "parallel"
             counts["parallel"] += 1
         else:
-            comps = _co_components(items, nbrs, mark, tag)
+            comps = _co_components(items, succ, pred, mark, tag)
             if len(comps) > 1:
                 node["kind"] = "series"
                 counts["series"] += 1
-                member = mark == tag
-                comps.sort(key=lambda c: sum(1 for y in pred[c[0]] if member[y]))
+                comps.sort(key=lambda c: sum(1 for y in pred[c[0]] if mark[y] == tag))
         if len(comps) == 1:
             counts["parts"] += 1
             node["part"] = _solve_part(succ, pred, items, sat_limit, deadline, notes)

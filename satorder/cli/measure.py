@@ -1,0 +1,110 @@
+"""``satorder measure FILE``: height, width, partitions, Hasse diagram and dimension of the
+order found, each with a witness that an independent check has confirmed."""
+
+from __future__ import annotations
+
+from rich.table import Table
+
+from ..certify_measure import check_measures
+from ..errors import InputError
+from ..measure import measure
+from ..solve import ENGINES, solve
+from .common import atomic_write, check_output_path, dumps, err, load, out, print_json
+
+SHOW = 12  # items listed per witness on screen
+
+
+def add_parser(sub):
+    p = sub.add_parser("measure", help="height, width, dimension (with witnesses) of the order",
+                       description=__doc__)
+    p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
+    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
+    p.add_argument("--out", metavar="FILE", help="also write the JSON figures to FILE")
+    p.add_argument("--draw", metavar="FILE.svg",
+                   help="draw the Hasse diagram to FILE.svg (and, for dimension 2, a dominance "
+                        "drawing to FILE-dominance.svg)")
+    p.add_argument("--engine", choices=ENGINES, default="auto",
+                   help="engine that finds the order (see 'satorder solve --help')")
+    p.add_argument("--sat-limit", type=int, default=40, metavar="N",
+                   help="largest part (items) whose dimension ≥ 3 is settled by SAT (default 40)")
+    p.add_argument("--time-limit", type=float, default=60.0, metavar="SECONDS",
+                   help="time for the SAT dimension search before reporting bounds (default 60)")
+    return p
+
+
+def _names(names, items, limit=SHOW):
+    shown = ", ".join(names[i] for i in items[:limit])
+    return shown + (f", … ({len(items)} in all)" if len(items) > limit else "")
+
+
+def run(args) -> int:
+    from ..draw import DRAW_LIMIT, pictures
+
+    check_output_path(args.out, args.file)
+    check_output_path(args.draw, args.file)
+    if args.draw and not args.draw.lower().endswith(".svg"):
+        raise InputError(f"{args.draw}: --draw writes SVG; give a file name ending in .svg")
+    problem = load(args.file)
+    if args.draw and problem.n > DRAW_LIMIT:
+        raise InputError(f"{args.file}: {problem.n} items are too many to draw legibly "
+                         f"(limit {DRAW_LIMIT}); leave out --draw")
+    with err.status("finding the order…"):
+        ans = solve(problem, engine=args.engine)
+    if not ans.feasible:
+        doc = {"status": ans.status, "height": None, "width": None, "dimension": None,
+               "items": problem.n}
+        if args.out:
+            atomic_write(args.out, dumps(doc))
+        if args.json:
+            print_json(doc)
+        else:
+            out.print(f"[bold red]{ans.status.upper()}[/]: no order to measure. Run "
+                      f"[bold]satorder solve {args.file}[/] to see why.")
+        return 3 if ans.status == "unknown" else 0
+    weights = problem.weights
+    with err.status("measuring…") as status:
+        m = measure(ans.succ, weights=weights, sat_limit=args.sat_limit,
+                    time_limit=args.time_limit,
+                    progress=lambda s: status.update(f"measuring: {s}…"))
+        status.update("checking every witness…")
+        check_measures(ans.succ, m, weights)
+    doc = {"status": ans.status, **m.to_json(problem.items)}
+    if args.out:
+        atomic_write(args.out, dumps(doc))
+    if args.draw:
+        for path, text in pictures(args.draw, ans.succ, problem.items, m).items():
+            atomic_write(path, text)
+            err.print(f"wrote {path}", markup=False)
+    if args.json:
+        print_json(doc)
+    else:
+        _show(problem.items, m, weights is not None)
+    return 0
+
+
+def _show(names, m, weighted):
+    dim = m.dimension
+    t = Table(title=f"Figures of the order ({m.n} items, {m.pairs} ordered pairs; "
+              + ("all witnesses verified" if m.verified else "NOT verified") + ")")
+    t.add_column("figure")
+    t.add_column("value", justify="right")
+    t.add_column("witness")
+    t.add_row("height", str(m.height.value), "chain: " + " < ".join(
+        names[i] for i in m.height.witness[:SHOW]) + (" < …" if m.height.value > SHOW else ""))
+    t.add_row("", "", f"partition into {len(m.height.partition)} antichains (levels)")
+    t.add_row("width", str(m.width.value), "antichain: " + _names(names, m.width.witness))
+    t.add_row("", "", f"partition into {len(m.width.partition)} chains")
+    if dim.status == "exact":
+        t.add_row("dimension", str(dim.value), f"realizer of {len(dim.realizer)} linear orders")
+    else:
+        t.add_row("dimension", f"{dim.lower}–{dim.upper}", "bounded: " + "; ".join(dim.notes))
+    if dim.witness is not None:
+        t.add_row("", "", f"sub-order of dimension ≥ {dim.witness_lower}: "
+                  + _names(names, dim.witness))
+    t.add_row("Hasse diagram", str(len(m.hasse)), "covering pairs")
+    t.add_row("linear extension", "", _names(names, m.linear_extension))
+    if weighted:
+        wc, wa = m.weighted_chain, m.weighted_antichain
+        t.add_row("max-weight chain", str(wc.value), " < ".join(names[i] for i in wc.witness))
+        t.add_row("max-weight antichain", str(wa.value), _names(names, wa.witness))
+    out.print(t)
