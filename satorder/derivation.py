@@ -314,9 +314,10 @@ def describe(step: Step, core: list[dict], names: list[str]) -> tuple[str, str]:
     elif step.rule == "antisymmetry":
         why = f"antisymmetry: steps {s[0]} and {s[1]} order the same pair both ways"
     elif step.rule == "unordered":
-        why = f"step {s[0]} orders a pair that must stay unordered ({req(step.requirements[0])})"
+        a, b = (names[v] for v in core[step.requirements[0]]["pair"])
+        why = f"step {s[0]} orders {a} and {b}, which must stay unordered"
     elif step.rule == "forbidden":
-        why = f"step {s[0]} is ruled out ({req(step.requirements[0])})"
+        why = f"step {s[0]} is ruled out: {req(step.requirements[0])}"
     else:
         why = step.rule
     return claim, why

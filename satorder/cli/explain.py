@@ -1,0 +1,59 @@
+"""``satorder explain FILE``: why no order exists — a minimal core of your requirements, a
+step-by-step derivation, an obstruction, and repairs."""
+
+from __future__ import annotations
+
+from ..explain import explain
+from ..explain_picture import explanation_svg
+from ..render_explain import print_explanation
+from .common import (
+    UsageError,
+    atomic_write,
+    check_output_path,
+    err,
+    load,
+    out,
+    print_json,
+)
+
+
+def add_parser(sub):
+    p = sub.add_parser("explain", help="explain why no order exists, and how to repair it",
+                       description=__doc__)
+    p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
+    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
+    p.add_argument("--smallest", action="store_true",
+                   help="look for a core with the fewest requirements (small problems)")
+    p.add_argument("--repairs", type=int, default=0, metavar="K",
+                   help="list up to K minimal sets of requirements whose removal fixes it")
+    p.add_argument("--draw", metavar="FILE.svg", help="write a picture of the core (SVG)")
+    p.add_argument("--time-limit", type=float, default=30.0, metavar="SECONDS",
+                   help="time for --smallest and for --repairs each (default 30)")
+    return p
+
+
+def run(args) -> int:
+    if args.repairs < 0:
+        raise UsageError(f"--repairs must be 0 or more, got {args.repairs}")
+    if args.time_limit <= 0:
+        raise UsageError(f"--time-limit must be positive, got {args.time_limit:g}")
+    if args.draw and not args.draw.lower().endswith(".svg"):
+        raise UsageError(f"--draw {args.draw}: the picture is SVG; give a name ending in .svg")
+    check_output_path(args.draw, args.file)
+    problem = load(args.file)
+    with err.status("explaining…") as status:
+        expl = explain(problem, smallest=args.smallest, repairs=args.repairs,
+                       time_limit=args.time_limit,
+                       progress=lambda stage: status.update(f"explaining: {stage}…"))
+    if args.draw:
+        if expl.status == "infeasible":
+            atomic_write(args.draw, explanation_svg(expl, title=None))
+        else:
+            err.print(f"satorder: nothing to draw: the problem is {expl.status}", markup=False)
+    if args.json:
+        print_json(expl.to_json())
+    else:
+        print_explanation(expl, out, file=args.file)
+        if args.draw and expl.status == "infeasible":
+            out.print(f"Picture written to {args.draw}")
+    return 3 if expl.status == "unknown" else 0

@@ -1,0 +1,399 @@
+"""Explaining infeasibility: a minimal core, a derivation, an obstruction and repairs.
+
+``explain(problem)`` answers "why is there no order, in my own requirements, and what could I
+change?":
+
+* **core** — a minimal infeasible subset of the requirements (every other requirement dropped,
+  unnamed pairs open; dropping any one member makes it feasible), found by deletion-based MUS
+  extraction (:mod:`satorder.mus`).  For problems whose non-comparable pairs must all stay
+  unordered, the search starts from the forcing chain of a minimal obstruction, so only the
+  unordered pairs that justify forcing steps ever get a selector — never one per non-edge.
+* **obstruction** — when the comparable pairs alone admit no order: a minimal set of items whose
+  induced subgraph has no transitive orientation (:mod:`satorder.obstruction`).
+* **derivation** — numbered steps from the core to a contradiction
+  (:mod:`satorder.derivation`), replayed by the independent checker :mod:`satorder.replay`.
+* **smallest** (optional) — a minimum-cardinality core by hitting-set duality, on small problems.
+* **repairs** (optional) — minimal correction sets, each verified by exhibiting an order for the
+  repaired problem that :func:`satorder.certify.check_order` accepts.
+
+Every core is re-checked by :func:`satorder.certify.check_core_infeasible` (an independent
+all-triples encoding and solver).
+
+>>> from satorder import Problem
+>>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("c", "d"), ("d", "e"), ("e", "a")])
+>>> e = explain(p)
+>>> e.status, sorted(p.names(e.obstruction)), e.verified
+('infeasible', ['a', 'b', 'c', 'd', 'e'], True)
+"""
+
+from __future__ import annotations
+
+import time
+from dataclasses import dataclass, field
+from itertools import combinations, product
+from typing import Any
+
+from . import certify, derivation, replay
+from .errors import CertificateError
+from .forcing import ForcingResult, transitive_orientation
+from .mus import RequirementOracle, correction_sets, minimal_core, smallest_core
+from .obstruction import find_obstruction, induced_adjacency
+from .problem import Problem
+
+FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
+WHOLE_PROBLEM_ITEMS = 24  # up to this many items, cores and repairs range over every requirement
+MINIMALITY_CHECK_ITEMS = 40  # independent minimality re-check up to this many core items
+
+
+@dataclass
+class Repair:
+    """A minimal correction set: requirements to drop, and an order the repaired problem admits."""
+
+    drop: list[dict]
+    succ: list[set[int]] | None
+    verified: bool
+    note: str = ""
+
+
+@dataclass
+class Explanation:
+    """The outcome of :func:`explain` (requirements use item ids; see :meth:`to_json`)."""
+
+    problem: Problem
+    status: str
+    core: list[dict] | None = None
+    obstruction: list[int] | None = None
+    steps: list[derivation.Step] | None = None
+    smallest: dict[str, Any] | None = None
+    repairs: list[Repair] | None = None
+    notes: list[str] = field(default_factory=list)
+    verified: bool = False
+    stats: dict[str, Any] = field(default_factory=dict)
+
+    def core_json(self) -> list[dict]:
+        names = self.problem.items
+        return [{"kind": r["kind"], "pair": [names[r["pair"][0]], names[r["pair"][1]]]}
+                for r in self.core or []]
+
+    def derivation_json(self) -> list[dict] | None:
+        if self.steps is None:
+            return None
+        return derivation.to_json(self.steps, self.core, self.problem.items)
+
+    def to_json(self) -> dict[str, Any]:
+        """The machine-readable explanation (fields fixed by the CLI contract, extras welcome)."""
+        names = self.problem.items
+        doc: dict[str, Any] = {"status": self.status}
+        if self.core is not None:
+            doc["core"] = self.core_json()
+        if self.obstruction is not None:
+            doc["obstruction"] = [names[v] for v in self.obstruction]
+        if self.steps is not None:
+            doc["derivation"] = self.derivation_json()
+        if self.smallest is not None:
+            doc["smallest"] = self.smallest
+        if self.repairs is not None:
+            doc["repairs"] = [
+                {
+                    "drop": [{"kind": r["kind"], "pair": [names[r["pair"][0]],
+                                                          names[r["pair"][1]]]}
+                             for r in rep.drop],
+                    "order": None if rep.succ is None else
+                    [[names[a], names[b]] for a, s in enumerate(rep.succ) for b in sorted(s)],
+                    "verified": rep.verified,
+                    **({"note": rep.note} if rep.note else {}),
+                }
+                for rep in self.repairs
+            ]
+        if self.notes:
+            doc["notes"] = self.notes
+        doc["items"] = self.problem.n
+        doc["comparable_pairs"] = self.problem.num_comparable
+        doc["verified"] = self.verified
+        doc["stats"] = self.stats
+        return doc
+
+
+# ---------------------------------------------------------------------- requirements
+def requirements(problem: Problem, items=None) -> list[dict]:
+    """The hard requirements of ``problem`` as ``{"kind", "pair"}`` dicts, optionally only those
+    whose two items lie in ``items``.  A fixed arc stands for its own pair: the pair is not
+    listed again as comparable.  Under ``"others"`` the unordered pairs are enumerated, so
+    without ``items`` this is for small problems."""
+    keep = None if items is None else set(items)
+    fixed_pairs = {frozenset(a) for a in problem.fixed}
+    out: list[dict] = []
+
+    def inside(a, b):
+        return keep is None or (a in keep and b in keep)
+
+    if keep is None:
+        comp = problem.comparable_pairs()
+    else:
+        comp = ((a, b) for a in sorted(keep) for b in problem.adj[a] if a < b and b in keep)
+    for a, b in comp:
+        if frozenset((a, b)) not in fixed_pairs:
+            out.append({"kind": "comparable", "pair": (a, b)})
+    if keep is None:
+        inc = problem.incomparable_pairs()
+    else:
+        inc = ((a, b) for a, b in combinations(sorted(keep), 2)
+               if problem.must_be_unordered(a, b))
+    out += [{"kind": "incomparable", "pair": (a, b)} for a, b in inc]
+    out += [{"kind": "fixed", "pair": (a, b)} for a, b in problem.fixed if inside(a, b)]
+    out += [{"kind": "forbidden", "pair": (a, b)} for a, b in problem.forbidden if inside(a, b)]
+    return out
+
+
+def _items_of(reqs) -> list[int]:
+    return sorted({v for r in reqs for v in r["pair"]})
+
+
+# ---------------------------------------------------------------------- obstruction check
+def check_obstruction(problem: Problem, items: list[int]) -> None:
+    """Independently confirm that ``items`` induce a minimal non-orientable subgraph: a forcing
+    chain of the induced subgraph passes :func:`certify.check_forcing_chain`, and each
+    one-item-smaller subset has an orientation that passes :func:`certify.check_order`."""
+
+    def sub_problem(vs):
+        order, sub = induced_adjacency(problem.adj, vs)
+        return Problem(items=[problem.items[v] for v in order], adj=sub)
+
+    p = sub_problem(items)
+    res = transitive_orientation(p.adj)
+    if res.orientable:
+        raise CertificateError("the obstruction's items induce an orientable subgraph")
+    certify.check_forcing_chain(p, res.chain)
+    for k in range(len(items)):
+        q = sub_problem(items[:k] + items[k + 1:])
+        r = transitive_orientation(q.adj)
+        if not r.orientable:
+            raise CertificateError(
+                f"the obstruction is not minimal: {problem.items[items[k]]} can be dropped")
+        certify.check_order(q, r.successor_sets())
+
+
+def _chain_core(problem: Problem, items: list[int]) -> list[dict]:
+    """Comparable pairs and unordered witness pairs of a forcing chain inside ``items``."""
+    order, sub = induced_adjacency(problem.adj, items)
+    res = transitive_orientation(sub)
+    assert not res.orientable
+    core: dict[tuple, dict] = {}
+    for s in res.chain:
+        a, b = sorted((order[s.arc[0]], order[s.arc[1]]))
+        core.setdefault(("comparable", a, b), {"kind": "comparable", "pair": (a, b)})
+        if s.because is not None:
+            x, y = sorted((order[s.because[0]], order[s.because[1]]))
+            core.setdefault(("incomparable", x, y), {"kind": "incomparable", "pair": (x, y)})
+    return list(core.values())
+
+
+# ---------------------------------------------------------------------- repairs
+def repaired_problem(problem: Problem, drop: list[dict]) -> Problem:
+    """``problem`` with the requirements in ``drop`` removed (their pairs become open).  The
+    unordered pairs are listed explicitly, so this is for problems of modest size."""
+    adj = [set(s) for s in problem.adj]
+    if problem.incomparable is None:
+        inc = [set(range(problem.n)) - adj[a] - {a} for a in range(problem.n)]
+    else:
+        inc = [set(s) for s in problem.incomparable]
+    fixed, forbidden = list(problem.fixed), list(problem.forbidden)
+    for r in drop:
+        a, b = r["pair"]
+        if r["kind"] == "comparable":
+            adj[a].discard(b)
+            adj[b].discard(a)
+        elif r["kind"] == "incomparable":
+            inc[a].discard(b)
+            inc[b].discard(a)
+        elif r["kind"] == "fixed":
+            fixed.remove((a, b))
+            if not any({a, b} == {x, y} for x, y in fixed):
+                adj[a].discard(b)
+                adj[b].discard(a)
+        else:
+            forbidden.remove((a, b))
+    return problem.with_requirements(adj=adj, incomparable=inc, fixed=fixed,
+                                     forbidden=forbidden, prefer=[])
+
+
+def _closure(n: int, arcs) -> list[set[int]]:
+    succ: list[set[int]] = [set() for _ in range(n)]
+    for a, b in arcs:
+        succ[a].add(b)
+    return succ
+
+
+def _verify_small_repair(problem: Problem, oracle, universe, mcs) -> Repair:
+    drop = [oracle.requirements[k] for k in mcs]
+    ok, arcs = oracle.check([k for k in universe if k not in set(mcs)])
+    if not ok:
+        return Repair(drop, None, False, "the repaired problem is still infeasible")
+    succ = _closure(problem.n, arcs)  # the oracle's model is transitively closed
+    certify.check_order(repaired_problem(problem, drop), succ)
+    return Repair(drop, succ, True)
+
+
+def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int) -> Repair:
+    """For problems whose other pairs must all stay unordered: the dropped pairs become open, so
+    the repaired problem is feasible iff some choice of ordered/unordered for them leaves a
+    comparability graph.  Each choice is tried (flipping every dropped pair first); an
+    orientation found is checked by :func:`certify.check_order` on that graph, which lies
+    between the kept comparable pairs and the kept pairs plus the open ones."""
+    pairs = [tuple(r["pair"]) for r in drop if r["kind"] in ("comparable", "incomparable")]
+    was_edge = [r["kind"] == "comparable" for r in drop
+                if r["kind"] in ("comparable", "incomparable")]
+    if len(pairs) != len(drop):
+        return Repair(drop, None, False, "fixed or forbidden arcs: not checked at this size")
+    for tries, choice in enumerate(product((False, True), repeat=len(pairs))):
+        if tries >= max_tries:
+            break
+        adj = list(problem.adj)
+        for (a, b), edge_before, keep in zip(pairs, was_edge, choice):
+            edge = edge_before == keep  # choice False flips the pair
+            for x, y in ((a, b), (b, a)):
+                adj[x] = set(adj[x])
+                (adj[x].add if edge else adj[x].discard)(y)
+        res = transitive_orientation(adj)
+        if res.orientable:
+            succ = res.successor_sets()
+            certify.check_order(Problem(items=problem.items, adj=adj), succ)
+            return Repair(drop, succ, True)
+    return Repair(drop, None, False, "other conflicts remain after this change")
+
+
+# ---------------------------------------------------------------------- main entry
+def explain(
+    problem: Problem,
+    smallest: bool = False,
+    repairs: int = 0,
+    forcing_result: ForcingResult | None = None,
+    time_limit: float = 30.0,
+    progress=None,
+) -> Explanation:
+    """Explain why ``problem`` admits no order (or say that it does).
+
+    ``smallest`` asks for a minimum-cardinality core; ``repairs`` for up to that many minimal
+    correction sets.  ``forcing_result`` may pass the forcing algorithm's outcome on
+    ``problem.adj`` when the caller already has it.  ``progress(text)`` is called before each
+    stage.
+    """
+    say = progress or (lambda text: None)
+    t0 = time.perf_counter()
+    stats: dict[str, Any] = {}
+    expl = Explanation(problem, UNKNOWN, stats=stats)
+    small = problem.n <= WHOLE_PROBLEM_ITEMS
+    whole_oracle = None
+    core: list[dict] | None = None
+
+    if problem.incomparable is None:
+        say("forcing")
+        res = forcing_result or transitive_orientation(problem.adj)
+        stats["forcing_seconds"] = round(time.perf_counter() - t0, 6)
+        if not res.orientable:
+            say("obstruction")
+            t = time.perf_counter()
+            ob = find_obstruction(problem.adj, res)
+            check_obstruction(problem, ob)
+            expl.obstruction = ob
+            stats["obstruction_seconds"] = round(time.perf_counter() - t, 6)
+            start = _chain_core(problem, ob)
+            with RequirementOracle(start) as oracle:
+                core = [start[k] for k in minimal_core(oracle, range(len(start)))]
+        elif problem.is_plain:
+            certify.check_order(problem, res.successor_sets())
+            expl.status, expl.verified = FEASIBLE, True
+            stats["seconds"] = round(time.perf_counter() - t0, 6)
+            return expl
+
+    if core is None:
+        say("core")
+        if not small and problem.incomparable is None:
+            raise NotImplementedError("large problems with side constraints need the SAT engine")
+        reqs = requirements(problem)
+        whole_oracle = RequirementOracle(reqs)
+        ok, found = whole_oracle.check(range(len(reqs)))
+        if ok:
+            certify.check_order(problem, _closure(problem.n, found))
+            expl.status, expl.verified = FEASIBLE, True
+            whole_oracle.close()
+            stats["seconds"] = round(time.perf_counter() - t0, 6)
+            return expl
+        core = [reqs[k] for k in minimal_core(whole_oracle, found)]
+
+    expl.status, expl.core = INFEASIBLE, core
+    say("checking the core")
+    items = _items_of(core)
+    certify.check_core_infeasible(problem, core, minimal=len(items) <= MINIMALITY_CHECK_ITEMS)
+    if len(items) > MINIMALITY_CHECK_ITEMS:
+        expl.notes.append(f"the core spans {len(items)} items: its minimality was established by "
+                          "the extractor, not re-checked independently")
+
+    say("derivation")
+    t = time.perf_counter()
+    try:
+        expl.steps = derivation.build_derivation(core)
+    except derivation.DerivationBudgetExceeded:
+        expl.notes.append("no derivation: the case-split search gave up on this core")
+    if expl.steps is not None:
+        replay.check_derivation(expl.core_json(), expl.derivation_json())
+    stats["derivation_seconds"] = round(time.perf_counter() - t, 6)
+
+    if smallest or repairs:
+        if small:
+            universe_reqs = requirements(problem)
+            scope = "whole problem"
+        else:
+            universe_reqs = requirements(problem, set(items) | set(expl.obstruction or ()))
+            scope = f"requirements among the {len(_items_of(universe_reqs))} items of the core"
+        if whole_oracle is None or not small:
+            if whole_oracle is not None:
+                whole_oracle.close()
+            whole_oracle = RequirementOracle(universe_reqs)
+        universe = list(range(len(universe_reqs)))
+        if smallest:
+            say("smallest core")
+            t = time.perf_counter()
+            best, proved = smallest_core(whole_oracle, universe, time_limit=time_limit)
+            info: dict[str, Any] = {"proved": proved, "scope": scope}
+            if best is not None:
+                found = [universe_reqs[k] for k in best]
+                certify.check_core_infeasible(problem, found, minimal=True)
+                info["size"] = len(found)
+                if len(found) < len(core):
+                    expl.core = found
+                    expl.steps = derivation.build_derivation(found)
+                    replay.check_derivation(expl.core_json(), expl.derivation_json())
+            else:
+                info["note"] = f"gave up after {time_limit:g} s; the core shown is minimal"
+            if not small:
+                info["note"] = ("searched only among requirements on the core's items; "
+                                "a smaller core elsewhere in the problem is not ruled out")
+            stats["smallest_seconds"] = round(time.perf_counter() - t, 6)
+            expl.smallest = info
+        if repairs:
+            say("repairs")
+            t = time.perf_counter()
+            found = correction_sets(whole_oracle, universe, repairs, time_limit=time_limit)
+            out = []
+            for mcs in found:
+                if small:
+                    out.append(_verify_small_repair(problem, whole_oracle, universe, mcs))
+                elif problem.incomparable is None:
+                    out.append(_verify_plain_repair(
+                        problem, [universe_reqs[k] for k in mcs],
+                        max_tries=1 if problem.num_comparable > 200_000 else 16))
+                else:
+                    out.append(Repair([universe_reqs[k] for k in mcs], None, False,
+                                      "not checked: needs the SAT engine at this size"))
+            expl.repairs = [r for r in out if r.verified]
+            skipped = len(out) - len(expl.repairs)
+            if skipped:
+                expl.notes.append(f"{skipped} local correction set(s) left out: dropping them "
+                                  "does not make the whole problem feasible")
+            stats["repairs_seconds"] = round(time.perf_counter() - t, 6)
+    if whole_oracle is not None:
+        whole_oracle.close()
+    expl.verified = True
+    stats["seconds"] = round(time.perf_counter() - t0, 6)
+    return expl
