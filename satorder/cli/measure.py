@@ -37,17 +37,35 @@ def _names(names, items, limit=SHOW):
     return shown + (f", … ({len(items)} in all)" if len(items) > limit else "")
 
 
-def run(args) -> int:
-    from ..draw import DRAW_LIMIT, pictures
+def _check_draw(path, source, n):
+    from ..draw import DRAW_LIMIT
 
-    check_output_path(args.out, args.file)
-    check_output_path(args.draw, args.file)
-    if args.draw and not args.draw.lower().endswith(".svg"):
-        raise InputError(f"{args.draw}: --draw writes SVG; give a file name ending in .svg")
-    problem = load(args.file)
-    if args.draw and problem.n > DRAW_LIMIT:
-        raise InputError(f"{args.file}: {problem.n} items are too many to draw legibly "
+    check_output_path(path, source)
+    if not path.lower().endswith(".svg"):
+        raise InputError(f"{path}: --draw writes SVG; give a file name ending in .svg")
+    if n > DRAW_LIMIT:
+        raise InputError(f"{source}: {n} items are too many to draw legibly "
                          f"(limit {DRAW_LIMIT}); leave out --draw")
+
+
+def write_pictures(path, source, succ, names, measures=None) -> None:
+    """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``)."""
+    from ..draw import pictures
+
+    _check_draw(path, source, len(succ))
+    if measures is None:
+        measures = measure(succ, time_limit=10.0)
+        check_measures(succ, measures)
+    for name, text in pictures(path, succ, names, measures).items():
+        atomic_write(name, text)
+        err.print(f"wrote {name}", markup=False)
+
+
+def run(args) -> int:
+    check_output_path(args.out, args.file)
+    problem = load(args.file)
+    if args.draw:
+        _check_draw(args.draw, args.file, problem.n)
     with err.status("finding the order…"):
         ans = solve(problem, engine=args.engine)
     if not ans.feasible:
@@ -72,9 +90,7 @@ def run(args) -> int:
     if args.out:
         atomic_write(args.out, dumps(doc))
     if args.draw:
-        for path, text in pictures(args.draw, ans.succ, problem.items, m).items():
-            atomic_write(path, text)
-            err.print(f"wrote {path}", markup=False)
+        write_pictures(args.draw, args.file, ans.succ, problem.items, m)
     if args.json:
         print_json(doc)
     else:

@@ -18,6 +18,7 @@ def add_parser(sub):
     p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
     p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
                    help="give status unknown instead of running longer")
+    p.add_argument("--draw", metavar="FILE.svg", help="draw the order's Hasse diagram to FILE.svg")
     return p
 
 
@@ -28,6 +29,10 @@ def run(args) -> int:
     doc = ans.to_json() if (args.json or args.out) else None
     if args.out:
         atomic_write(args.out, dumps(doc))
+    if args.draw and ans.feasible:
+        from .measure import write_pictures
+
+        write_pictures(args.draw, args.file, ans.succ, problem.items)
     if args.json:
         print_json(doc)
     else:
