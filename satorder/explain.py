@@ -178,10 +178,15 @@ def _chain_core(problem: Problem, items: list[int]) -> list[dict]:
     order, sub = induced_adjacency(problem.adj, items)
     res = transitive_orientation(sub)
     assert not res.orientable
+    fixed = {frozenset(arc): arc for arc in problem.fixed}  # a fixed arc stands for its pair
     core: dict[tuple, dict] = {}
     for s in res.chain:
         a, b = sorted((order[s.arc[0]], order[s.arc[1]]))
-        core.setdefault(("comparable", a, b), {"kind": "comparable", "pair": (a, b)})
+        arc = fixed.get(frozenset((a, b)))
+        if arc is not None:
+            core.setdefault(("fixed", *arc), {"kind": "fixed", "pair": arc})
+        else:
+            core.setdefault(("comparable", a, b), {"kind": "comparable", "pair": (a, b)})
         if s.because is not None:
             x, y = sorted((order[s.because[0]], order[s.because[1]]))
             core.setdefault(("incomparable", x, y), {"kind": "incomparable", "pair": (x, y)})
