@@ -37,7 +37,7 @@ from . import certify, derivation, replay
 from .errors import CertificateError
 from .forcing import ForcingResult, transitive_orientation
 from .mus import RequirementOracle, correction_sets, minimal_core, smallest_core
-from .obstruction import find_obstruction, induced_adjacency
+from .obstruction import chain_items, find_obstruction, induced_adjacency, minimise_obstruction
 from .problem import Problem
 
 FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
@@ -265,6 +265,25 @@ def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int) -> 
             certify.check_order(Problem(items=problem.items, adj=adj), succ)
             return Repair(drop, succ, True)
     return Repair(drop, None, False, "other conflicts remain after this change")
+
+
+def minimal_core_of(answer) -> list[dict] | None:
+    """A verified minimal core for an infeasible :class:`~satorder.answer.Answer`, computed from
+    its forcing chain (shrunk to a minimal obstruction first) or from the engine's core; ``None``
+    when the answer carries neither, or the core spans too many items to re-check."""
+    p = answer.problem
+    if answer.chain is not None:
+        start = _chain_core(p, minimise_obstruction(p.adj, chain_items(answer.chain)))
+    elif answer.core:
+        start = [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in answer.core]
+    else:
+        return None
+    if len(_items_of(start)) > MINIMALITY_CHECK_ITEMS:
+        return None
+    with RequirementOracle(start) as oracle:
+        core = [start[k] for k in minimal_core(oracle, range(len(start)))]
+    certify.check_core_infeasible(p, core, minimal=True)
+    return core
 
 
 # ---------------------------------------------------------------------- main entry

@@ -64,7 +64,16 @@ def print_answer(ans: Answer, console: Console, hint_file: str | None = None) ->
         if len(cover) > MAX_ROWS:
             console.print(f"… and {len(cover) - MAX_ROWS} more covering pairs (use --json).")
     elif ans.status == INFEASIBLE:
-        if ans.chain is not None:
+        if ans.core is not None and ans.stats.get("minimal_core"):
+            from .render_explain import print_core
+
+            console.print(f"No order exists. These {len(ans.core)} requirements cannot all hold "
+                          "(a minimal core: drop any one and the rest can be met):")
+            print_core(ans.core, names, console, limit=20)
+            if ans.chain is not None:
+                console.print(f"[dim]Certified by a forcing chain of {len(ans.chain)} arcs "
+                              "(see --json).[/]")
+        elif ans.chain is not None:
             console.print("No order exists. Forcing chain: each arc forces the next, ending in "
                           "the reverse of the first.")
             for k, s in enumerate(ans.chain, 1):

@@ -332,3 +332,13 @@ def test_cli_bad_input_is_one_line_and_exit_two(tmp_path, capsys, argv, words):
     assert main(argv) == 2
     err = capsys.readouterr().err.strip()
     assert words in err and len(err.splitlines()) == 1
+
+
+def test_solve_summary_shows_a_minimal_core_and_points_to_explain(tmp_path, capsys):
+    # a 5-cycle with a pendant item: the summary's core stays on the cycle and is minimal
+    path = _write(tmp_path, "ring.txt",
+                  "kiln loom\nloom quay\nquay mill\nmill dock\ndock kiln\nkiln yard\n")
+    assert main(["solve", path]) == 0
+    out = capsys.readouterr().out
+    assert "minimal core" in out and f"satorder explain {path}" in out
+    assert "yard" not in out.split("minimal core")[1].split("Run")[0]

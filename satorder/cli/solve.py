@@ -36,5 +36,12 @@ def run(args) -> int:
     if args.json:
         print_json(doc)
     else:
+        if ans.status == "infeasible":  # one-screen summary: a minimal core of the requirements
+            from ..explain import minimal_core_of
+
+            core = minimal_core_of(ans)
+            if core is not None:
+                ans.core = core
+                ans.stats["minimal_core"] = True
         print_answer(ans, out, hint_file=args.file)
     return 3 if ans.status == "unknown" else 0
