@@ -21,8 +21,14 @@ intersection is P (Dushnik & Miller 1941).  How it is found here:
 3. **SAT for dimension ≥ 3** on parts of at most ``sat_limit`` items: ``k`` linear orders, each
    extending P (transitivity clauses over item triples), that together reverse every
    incomparable pair; ``k = 3, 4, …`` until satisfiable.
-4. **Beyond reach** (a part whose incomparability graph is too large to build, or a part of
-   dimension ≥ 3 with too many items for SAT): the answer is *bounded*.  Lower bound: 3 when a
+4. **Large parts** (incomparability graph too large to build): first a quick search for a small
+   sub-order of dimension ≥ 3 among random connected pieces; if none, *ordered vertex
+   partitioning* (McConnell & Spinrad 2000) on the incomparability graph, driven by the
+   comparability lists alone (:func:`refine_conjugate`), proposes a conjugate order; the
+   resulting pair of linear orders is accepted only when it passes the realizer check.
+   Unsplit classes that are modules are realized recursively and substituted.
+5. **Beyond reach** (a large part where neither succeeds, or a part of dimension ≥ 3 with too
+   many items for SAT): the answer is *bounded*.  Lower bound: 3 when a
    sub-order of dimension ≥ 3 is found (by the chain above, or by sampling small connected
    pieces of the part), else 2.  Upper bound: ``min(width, max(2, ⌊n/2⌋))`` — dimension is at
    most the width (Dilworth 1950) and at most ``⌊n/2⌋`` for n ≥ 4 (Hiraguchi 1951), both from
@@ -241,6 +247,218 @@ def sample_witness(succ, pred, items: list[int], tries: int = 40, size: int = 12
     return None
 
 
+# ---------------------------------------------------------------- large parts: refinement
+
+def refine_conjugate(succ, pred, items: list[int], start: int):
+    """Ordered vertex partitioning on the incomparability graph H of the part, driven by the
+    comparability lists only (McConnell & Spinrad, "Ordered vertex partitioning", 2000).
+
+    The ordered partition starts as ``({start}, rest)``, assuming ``start`` is a source of a
+    transitive orientation of H.  Pivoting on ``x`` splits every other class ``Y`` into the
+    items comparable to ``x`` (``B``) and those incomparable to it (``A``): ``B`` goes first
+    when ``Y`` lies after ``x``'s class and last when before, since an H-arc ``a→b`` would
+    force the missing H-arc between ``x`` and ``b``.  Each split costs the degree of the pivot
+    in the comparability graph, so H is never built.  Returns the classes in order (singletons
+    when the refinement resolved everything; a larger class is a module left unsplit).
+    """
+    member = set(items)
+    cls = {x: 0 for x in items}
+    members = {0: set(items)}
+    label = {0: 0}
+    nxt, prv = {0: None}, {0: None}
+    counter = [1]
+    gap = 1 << 40
+
+    def relabel():
+        c = next(k for k, v in prv.items() if v is None)
+        k = 0
+        while c is not None:
+            label[c] = k
+            k += gap
+            c = nxt[c]
+
+    def insert(c, before_of=None, after_of=None):
+        if before_of is not None:
+            p, q = prv[before_of], before_of
+        else:
+            p, q = after_of, nxt[after_of]
+        lo = label[p] if p is not None else label[q] - 2 * gap
+        hi = label[q] if q is not None else label[p] + 2 * gap
+        prv[c], nxt[c] = p, q
+        if p is not None:
+            nxt[p] = c
+        if q is not None:
+            prv[q] = c
+        label[c] = (lo + hi) // 2
+        if hi - lo < 4:
+            relabel()
+
+    def new_class(ys, base, first):
+        c = counter[0]
+        counter[0] += 1
+        members[c] = set(ys)
+        members[base] -= members[c]
+        for y in ys:
+            cls[y] = c
+        if first:
+            insert(c, before_of=base)
+        else:
+            insert(c, after_of=base)
+        return c
+
+    # initial split: {start} before everything else
+    members[0].discard(start)
+    c = counter[0]
+    counter[0] += 1
+    members[c] = {start}
+    cls[start] = c
+    insert(c, before_of=0)
+
+    queue = [start]
+    queued = {start}
+    done_round = False
+    while True:
+        while queue:
+            x = queue.pop()
+            queued.discard(x)
+            cx = cls[x]
+            touched: dict[int, list[int]] = {}
+            for nb in (succ[x], pred[x]):
+                for y in nb:
+                    if y in member:
+                        cy = cls[y]
+                        if cy != cx:
+                            touched.setdefault(cy, []).append(y)
+            for cy, ys in touched.items():
+                if len(ys) == len(members[cy]):
+                    continue
+                c2 = new_class(ys, cy, first=label[cy] > label[cx])
+                small = c2 if len(members[c2]) <= len(members[cy]) else cy
+                for z in members[small]:
+                    if z not in queued:
+                        queued.add(z)
+                        queue.append(z)
+        if done_round or all(len(m) == 1 for m in members.values() if m):
+            break
+        # one full round of pivots catches splits the smaller-half rule may have skipped
+        done_round = True
+        queue = [x for x in items if x not in queued]
+        queued.update(queue)
+    out = []
+    c = next(k for k, v in prv.items() if v is None)
+    while c is not None:
+        if members[c]:
+            out.append(sorted(members[c]))
+        c = nxt[c]
+    return out
+
+
+def _positions_from_conjugate(succ, pred, items, line):
+    """Realizer ``(L1, L2)`` of the part from a line ordering its incomparable pairs by a
+    candidate conjugate order Q: ``L1 = P ∪ Q``, ``L2 = P ∪ Q⁻¹`` (Dushnik & Miller 1941)."""
+    idx = {x: i for i, x in enumerate(line)}
+    member = idx
+    k = len(line)
+    l1, l2 = [None] * k, [None] * k
+    for x in line:
+        i = idx[x]
+        below = sum(1 for y in pred[x] if y in member)
+        comp_before = sum(1 for nb in (succ[x], pred[x]) for y in nb
+                          if y in member and idx[y] < i)
+        comp_after = sum(1 for nb in (succ[x], pred[x]) for y in nb
+                         if y in member and idx[y] > i)
+        p1 = below + i - comp_before
+        p2 = below + (k - 1 - i) - comp_after
+        if not (0 <= p1 < k and 0 <= p2 < k) or l1[p1] is not None or l2[p2] is not None:
+            return None
+        l1[p1] = x
+        l2[p2] = x
+    return [l1, l2]
+
+
+def _accept(succ, items, realizer) -> bool:
+    """Does the candidate realize the part?  (The independent realizer check, used here only
+    to decide whether to claim the answer.)"""
+    from .certify_measure import check_realizer
+    from .errors import CertificateError
+
+    index = {x: i for i, x in enumerate(items)}
+    sub = _local(succ, items)
+    try:
+        check_realizer(sub, [[index[x] for x in lin] for lin in realizer])
+    except CertificateError:
+        return False
+    return True
+
+
+def large_part_realizer(succ, pred, items, sat_limit, deadline, notes, tries: int = 4):
+    """Try to realize a large part with two orders by ordered vertex partitioning.
+
+    The refinement is run from a first item; the last item of its outcome is then taken as the
+    start (M&S's choice of a source), then the first one, then a few minimal items.  Classes
+    left unsplit are modules: each is realized on its own (recursively) and laid out in its
+    first order.  Returns a verified 2-realizer or ``None`` (nothing proven either way).
+    """
+    rng = random.Random(len(items))
+    member = set(items)
+    minimal = [x for x in items if not any(y in member for y in pred[x])]
+    starts = [items[0]]
+    tried = set()
+    while starts and len(tried) < tries:
+        v = starts.pop(0)
+        if v in tried:
+            continue
+        tried.add(v)
+        classes = refine_conjugate(succ, pred, items, v)
+        if len(tried) == 1:
+            starts = [classes[-1][0], classes[0][0]] + rng.sample(minimal, min(3, len(minimal)))
+        line = []
+        ok = True
+        for c in classes:
+            if len(c) == 1:
+                line.extend(c)
+                continue
+            if not _is_module(succ, pred, c, member):
+                ok = False
+                break
+            sub = dimension_of_items(succ, c, sat_limit, deadline)
+            if sub.realizer is None or len(sub.realizer) > 2:
+                ok = False
+                break
+            line.extend(sub.realizer[0])
+        if not ok:
+            continue
+        real = _positions_from_conjugate(succ, pred, items, line)
+        if real is not None and _accept(succ, items, real):
+            return real
+    return None
+
+
+def _is_module(succ, pred, group, member) -> bool:
+    """Every item of the part outside ``group`` is above all of it, below all, or unrelated
+    to all (so ``group`` can be realized on its own and substituted)."""
+    inside = set(group)
+    first = group[0]
+    up = {y for y in succ[first] if y in member and y not in inside}
+    down = {y for y in pred[first] if y in member and y not in inside}
+    for x in group[1:]:
+        if {y for y in succ[x] if y in member and y not in inside} != up:
+            return False
+        if {y for y in pred[x] if y in member and y not in inside} != down:
+            return False
+    return True
+
+
+def dimension_of_items(succ, items, sat_limit=40, deadline=None):
+    """:func:`dimension` of the sub-order on ``items``, answers in item ids."""
+    sub = _local(succ, items)
+    left = None if deadline is None else max(0.1, deadline - time.perf_counter())
+    d = dimension(sub, sat_limit=sat_limit, time_limit=left)
+    if d.realizer is not None:
+        d.realizer = [[items[i] for i in lin] for lin in d.realizer]
+    return d
+
+
 # ---------------------------------------------------------------- SAT for dimension ≥ 3
 
 def sat_realizer(sub: list[set[int]], k: int, time_limit: float | None = None):
@@ -347,7 +565,14 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> _Part:
     pairs = sum(len(succ[x] & member) for x in items)
     incomparable = k * (k - 1) // 2 - pairs
     if incomparable > MAX_INCOMPARABLE_PAIRS:
-        found = sample_witness(succ, pred, items)
+        # a quick look for a small sub-order of dimension >= 3 first: when one exists the
+        # refinement below cannot succeed
+        found = sample_witness(succ, pred, items, tries=20, seconds=3.0)
+        if found is None:
+            real = large_part_realizer(succ, pred, items, sat_limit, deadline, notes)
+            if real is not None:
+                return _Part(2, 2, real)
+            found = sample_witness(succ, pred, items, seed=1)
         upper = min(_part_width(succ, items), _hiraguchi(k))
         notes.append(f"a part of {k} items has {incomparable} incomparable pairs, too many for "
                      "the exact dimension-2 test; dimension bounded"
