@@ -41,7 +41,8 @@ from .obstruction import chain_items, find_obstruction, induced_adjacency, minim
 from .problem import Problem
 
 FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
-WHOLE_PROBLEM_ITEMS = 24  # up to this many items, cores and repairs range over every requirement
+WHOLE_PROBLEM_ITEMS = 24  # up to this many items, smallest cores and repairs range over all
+ORACLE_ITEMS = 60  # up to this many items, the core is found by the all-triples oracle
 MINIMALITY_CHECK_ITEMS = 40  # independent minimality re-check up to this many core items
 
 
@@ -239,17 +240,21 @@ def _verify_small_repair(problem: Problem, oracle, universe, mcs) -> Repair:
     return Repair(drop, succ, True)
 
 
-def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int) -> Repair:
+def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int):
     """For problems whose other pairs must all stay unordered: the dropped pairs become open, so
     the repaired problem is feasible iff some choice of ordered/unordered for them leaves a
-    comparability graph.  Each choice is tried (flipping every dropped pair first); an
-    orientation found is checked by :func:`certify.check_order` on that graph, which lies
-    between the kept comparable pairs and the kept pairs plus the open ones."""
+    comparability graph.  Choices are tried (flipping every dropped pair first); an orientation
+    found is checked by :func:`certify.check_order` on that graph, which lies between the kept
+    comparable pairs and the kept pairs plus the open ones.
+
+    Returns ``(repair, blocker)``: ``blocker`` is a minimal obstruction of the first (flipped)
+    choice when no choice worked, i.e. where the remaining conflict lies."""
     pairs = [tuple(r["pair"]) for r in drop if r["kind"] in ("comparable", "incomparable")]
     was_edge = [r["kind"] == "comparable" for r in drop
                 if r["kind"] in ("comparable", "incomparable")]
     if len(pairs) != len(drop):
-        return Repair(drop, None, False, "fixed or forbidden arcs: not checked at this size")
+        return Repair(drop, None, False, "fixed or forbidden arcs: not checked here"), None
+    blocker = None
     for tries, choice in enumerate(product((False, True), repeat=len(pairs))):
         if tries >= max_tries:
             break
@@ -263,8 +268,79 @@ def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int) -> 
         if res.orientable:
             succ = res.successor_sets()
             certify.check_order(Problem(items=problem.items, adj=adj), succ)
-            return Repair(drop, succ, True)
-    return Repair(drop, None, False, "other conflicts remain after this change")
+            return Repair(drop, succ, True), None
+        if blocker is None:
+            blocker = find_obstruction(adj, res)
+    return Repair(drop, None, False, "other conflicts remain after this change"), blocker
+
+
+def _key(r: dict) -> tuple:
+    return (r["kind"], tuple(r["pair"]))
+
+
+def _local_repairs(problem: Problem, items: set[int], limit: int, deadline: float,
+                   say) -> tuple[list[Repair], list[str]]:
+    """Minimal correction sets for a large problem whose other pairs stay unordered.
+
+    Correction sets are enumerated over the requirements among a set of items ``U`` (first the
+    core's); each is checked on the whole problem.  One that works is a minimal correction set
+    of the whole problem too (a proper subset already fails on ``U``).  One that does not
+    reveals a further obstruction; its items join ``U`` and the enumeration restarts — an
+    implicit-hitting-set loop (Davies & Bacchus, "Solving MAXSAT by solving a sequence of
+    simpler MaxSAT instances", CP 2011) with the forcing algorithm as the oracle."""
+    items = set(items)
+    offered: dict[frozenset, Repair] = {}
+    rejected: set[frozenset] = set()
+    notes: list[str] = []
+    tries = 1 if problem.num_comparable > 200_000 else 16
+    while len(offered) < limit and time.monotonic() < deadline:
+        reqs = requirements(problem, items)
+        grew = False
+        with RequirementOracle(reqs) as oracle:
+            universe = list(range(len(reqs)))
+            found = correction_sets(oracle, universe, limit + len(rejected) + len(offered),
+                                    time_limit=max(0.1, deadline - time.monotonic()))
+        for mcs in found:
+            drop = [reqs[k] for k in mcs]
+            key = frozenset(map(_key, drop))
+            if key in offered or key in rejected:
+                continue
+            if time.monotonic() >= deadline or len(offered) >= limit:
+                break
+            say(f"checking repair {len(offered) + 1} on the whole problem")
+            rep, blocker = _verify_plain_repair(problem, drop, tries)
+            if rep.verified:
+                offered[key] = rep
+                continue
+            rejected.add(key)
+            if blocker is not None and not set(blocker) <= items and len(items) < 60:
+                items |= set(blocker)
+                grew = True
+                break
+        if not grew:
+            break
+    if rejected:
+        notes.append(f"{len(rejected)} correction set(s) of the core's neighbourhood left out: "
+                     "dropping them does not make the whole problem feasible")
+    if len(offered) < limit and time.monotonic() >= deadline:
+        notes.append("repairs: time limit reached")
+    return sorted(offered.values(), key=lambda r: len(r.drop)), notes
+
+
+def _engine_core(problem: Problem, time_limit: float):
+    """The project's solver on a problem too large for the all-triples oracle: ``"feasible"``
+    (its order verified), an infeasible core over requirement dicts, or ``None``."""
+    from .solve import solve
+
+    try:
+        ans = solve(problem, time_limit=time_limit)
+    except ImportError:
+        return None
+    if ans.status == FEASIBLE:
+        return FEASIBLE
+    if ans.status != INFEASIBLE or not ans.core:
+        return None
+    return [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in ans.core]
 
 
 def minimal_core_of(answer) -> list[dict] | None:
@@ -332,8 +408,20 @@ def explain(
 
     if core is None:
         say("core")
-        if not small and problem.incomparable is None:
-            raise NotImplementedError("large problems with side constraints need the SAT engine")
+        if problem.n > ORACLE_ITEMS:
+            found_core = _engine_core(problem, time_limit)
+            if found_core is None:
+                expl.notes.append(f"no verdict: problems with side constraints and more than "
+                                  f"{ORACLE_ITEMS} items need the SAT engine's core")
+                stats["seconds"] = round(time.perf_counter() - t0, 6)
+                return expl
+            if found_core == FEASIBLE:
+                expl.status, expl.verified = FEASIBLE, True
+                stats["seconds"] = round(time.perf_counter() - t0, 6)
+                return expl
+            with RequirementOracle(found_core) as oracle:
+                core = [found_core[k] for k in minimal_core(oracle, range(len(found_core)))]
+    if core is None:
         reqs = requirements(problem)
         whole_oracle = RequirementOracle(reqs)
         ok, found = whole_oracle.check(range(len(reqs)))
@@ -398,23 +486,20 @@ def explain(
         if repairs:
             say("repairs")
             t = time.perf_counter()
-            found = correction_sets(whole_oracle, universe, repairs, time_limit=time_limit)
-            out = []
-            for mcs in found:
-                if small:
-                    out.append(_verify_small_repair(problem, whole_oracle, universe, mcs))
-                elif problem.incomparable is None:
-                    out.append(_verify_plain_repair(
-                        problem, [universe_reqs[k] for k in mcs],
-                        max_tries=1 if problem.num_comparable > 200_000 else 16))
-                else:
-                    out.append(Repair([universe_reqs[k] for k in mcs], None, False,
-                                      "not checked: needs the SAT engine at this size"))
-            expl.repairs = [r for r in out if r.verified]
-            skipped = len(out) - len(expl.repairs)
-            if skipped:
-                expl.notes.append(f"{skipped} local correction set(s) left out: dropping them "
-                                  "does not make the whole problem feasible")
+            if small:
+                found = correction_sets(whole_oracle, universe, repairs, time_limit=time_limit)
+                expl.repairs = [_verify_small_repair(problem, whole_oracle, universe, mcs)
+                                for mcs in found]
+            elif problem.incomparable is None and not problem.fixed and not problem.forbidden:
+                expl.repairs, notes = _local_repairs(
+                    problem, set(items) | set(expl.obstruction or ()), repairs,
+                    time.monotonic() + time_limit, say)
+                expl.notes += notes
+            else:
+                expl.repairs = []
+                expl.notes.append("repairs are offered for problems of up to "
+                                  f"{WHOLE_PROBLEM_ITEMS} items, or larger ones whose other "
+                                  "pairs must all stay unordered")
             stats["repairs_seconds"] = round(time.perf_counter() - t, 6)
     if whole_oracle is not None:
         whole_oracle.close()
