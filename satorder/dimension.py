@@ -193,20 +193,31 @@ def _is_two_dimensional(sub: list[set[int]]) -> bool:
     return transitive_orientation(_incomparability_adj(sub)).orientable
 
 
-def shrink_witness(succ, items: list[int], max_items: int = 400) -> list[int]:
-    """Drop items one at a time while the sub-order keeps dimension ≥ 3 (a minimal witness
-    when ``items`` has at most ``max_items`` members; otherwise ``items`` unchanged)."""
+def shrink_witness(succ, items: list[int], max_items: int = 400, max_tests: int = 40
+                   ) -> list[int]:
+    """Drop items while the sub-order keeps dimension ≥ 3: chunks of halving size, then single
+    items (ddmin style).  The result is minimal (no single item can be dropped) unless the
+    budget of ``max_tests`` dimension-2 tests runs out first; ``items`` with more than
+    ``max_items`` members are returned unchanged."""
     if len(items) > max_items:
         return items
     cur = list(items)
-    i = 0
-    while i < len(cur):
-        trial = cur[:i] + cur[i + 1:]
-        if len(trial) >= 6 and not _is_two_dimensional(_local(succ, trial)):
-            cur = trial
-        else:
-            i += 1
-    return cur
+    chunk = max(1, len(cur) // 2)
+    tests = 0
+    while True:
+        i = 0
+        while i < len(cur):
+            trial = cur[:i] + cur[i + chunk:]
+            if tests >= max_tests:
+                return cur
+            tests += 1
+            if len(trial) >= 6 and not _is_two_dimensional(_local(succ, trial)):
+                cur = trial
+            else:
+                i += chunk
+        if chunk == 1:
+            return cur
+        chunk = max(1, chunk // 2)
 
 
 def _witness_chain(succ, items):
@@ -223,6 +234,8 @@ def sample_witness(succ, pred, items: list[int], tries: int = 40, size: int = 12
                    seconds: float = 5.0, seed: int = 0) -> list[int] | None:
     """Look for a sub-order of dimension ≥ 3 among small connected pieces of ``items``: a random
     breadth-first search that follows a few random neighbours of each item it reaches."""
+    if len(items) <= 2 * size:  # small enough to test whole
+        return None if _is_two_dimensional(_local(succ, items)) else list(items)
     rng = random.Random(seed)
     member = set(items)
     t_end = time.perf_counter() + seconds
