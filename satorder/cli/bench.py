@@ -99,7 +99,8 @@ def _report(args, rows, backends) -> int:
                         f"timeout {args.timeout:g} s")
     for col in ("back end", "runs", "solved", "timeouts", "failed", "skipped",
                 "median s (solved)", "total s"):
-        table.add_column(col, justify="left" if col == "back end" else "right")
+        table.add_column(col, justify="left" if col == "back end" else "right",
+                         no_wrap=col == "back end")
     for b in backends:
         s = summary.get(b)
         if s is None:
@@ -117,6 +118,9 @@ def _report(args, rows, backends) -> int:
     if args.plot:
         bench.plot(rows, args.plot)
         out.print(f"plots written to {args.plot}")
+    unverified = bench.find_unverified(rows)
+    for msg in unverified[:10]:
+        err.print(f"unverified: {msg}", markup=False, style="yellow")
     problems = bench.find_problems(rows)
     if problems:
         body = "\n".join(problems[:40])
