@@ -43,6 +43,7 @@ from .problem import Problem
 FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
 WHOLE_PROBLEM_ITEMS = 24  # up to this many items, smallest cores and repairs range over all
 ORACLE_ITEMS = 60  # up to this many items, the core is found by the all-triples oracle
+REPAIR_SAT_ITEMS = 3000  # repairs checked by re-solving list every unordered pair explicitly
 MINIMALITY_CHECK_ITEMS = 40  # independent minimality re-check up to this many core items
 
 
@@ -278,21 +279,41 @@ def _key(r: dict) -> tuple:
     return (r["kind"], tuple(r["pair"]))
 
 
+def _verify_general_repair(problem: Problem, drop: list[dict], deadline: float):
+    """Solve the repaired problem with the project's solver (its order is checked by
+    :func:`certify.check_order` inside :func:`satorder.solve.solve`); on failure the items of
+    the repaired problem's core show where the remaining conflict lies."""
+    from .solve import solve
+
+    left = deadline - time.monotonic()
+    if left <= 0:
+        return Repair(drop, None, False, "time limit reached"), None
+    ans = solve(repaired_problem(problem, drop), engine="sat", time_limit=left)
+    if ans.status == FEASIBLE:
+        return Repair(drop, ans.succ, True), None
+    if ans.status == INFEASIBLE and ans.core:
+        return (Repair(drop, None, False, "other conflicts remain after this change"),
+                _items_of(ans.core))
+    return Repair(drop, None, False, "no verdict within the time limit"), None
+
+
 def _local_repairs(problem: Problem, items: set[int], limit: int, deadline: float,
                    say) -> tuple[list[Repair], list[str]]:
-    """Minimal correction sets for a large problem whose other pairs stay unordered.
+    """Minimal correction sets for a problem too large for the whole-problem search.
 
     Correction sets are enumerated over the requirements among a set of items ``U`` (first the
     core's); each is checked on the whole problem.  One that works is a minimal correction set
     of the whole problem too (a proper subset already fails on ``U``).  One that does not
     reveals a further obstruction; its items join ``U`` and the enumeration restarts — an
     implicit-hitting-set loop (Davies & Bacchus, "Solving MAXSAT by solving a sequence of
-    simpler MaxSAT instances", CP 2011) with the forcing algorithm as the oracle."""
+    simpler MaxSAT instances", CP 2011).  The whole-problem check is the forcing algorithm
+    when every other pair must stay unordered, the SAT engine otherwise."""
     items = set(items)
     offered: dict[frozenset, Repair] = {}
     rejected: set[frozenset] = set()
     notes: list[str] = []
     tries = 1 if problem.num_comparable > 200_000 else 16
+    plain = problem.incomparable is None and not problem.fixed and not problem.forbidden
     while len(offered) < limit and time.monotonic() < deadline:
         reqs = requirements(problem, items)
         grew = False
@@ -308,7 +329,10 @@ def _local_repairs(problem: Problem, items: set[int], limit: int, deadline: floa
             if time.monotonic() >= deadline or len(offered) >= limit:
                 break
             say(f"checking repair {len(offered) + 1} on the whole problem")
-            rep, blocker = _verify_plain_repair(problem, drop, tries)
+            if plain:
+                rep, blocker = _verify_plain_repair(problem, drop, tries)
+            else:
+                rep, blocker = _verify_general_repair(problem, drop, deadline)
             if rep.verified:
                 offered[key] = rep
                 continue
@@ -340,7 +364,8 @@ def _engine_core(problem: Problem, time_limit: float):
         return FEASIBLE
     if ans.status != INFEASIBLE or not ans.core:
         return None
-    return [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in ans.core]
+    core = [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in ans.core]
+    return core, bool(ans.stats.get("core", {}).get("minimal"))
 
 
 def minimal_core_of(answer) -> list[dict] | None:
@@ -419,8 +444,15 @@ def explain(
                 expl.status, expl.verified = FEASIBLE, True
                 stats["seconds"] = round(time.perf_counter() - t0, 6)
                 return expl
-            with RequirementOracle(found_core) as oracle:
-                core = [found_core[k] for k in minimal_core(oracle, range(len(found_core)))]
+            found_core, engine_minimal = found_core
+            if len(_items_of(found_core)) <= ORACLE_ITEMS:
+                with RequirementOracle(found_core) as oracle:
+                    core = [found_core[k] for k in minimal_core(oracle, range(len(found_core)))]
+            else:  # shrunk by the SAT engine's deletion loop
+                core = found_core
+                if not engine_minimal:
+                    expl.notes.append("the SAT engine ran out of time shrinking the core: it "
+                                      "is infeasible but may not be minimal")
     if core is None:
         reqs = requirements(problem)
         whole_oracle = RequirementOracle(reqs)
@@ -490,16 +522,16 @@ def explain(
                 found = correction_sets(whole_oracle, universe, repairs, time_limit=time_limit)
                 expl.repairs = [_verify_small_repair(problem, whole_oracle, universe, mcs)
                                 for mcs in found]
-            elif problem.incomparable is None and not problem.fixed and not problem.forbidden:
+            elif problem.incomparable is None and not problem.fixed and not problem.forbidden \
+                    or problem.n <= REPAIR_SAT_ITEMS:
                 expl.repairs, notes = _local_repairs(
                     problem, set(items) | set(expl.obstruction or ()), repairs,
                     time.monotonic() + time_limit, say)
                 expl.notes += notes
             else:
                 expl.repairs = []
-                expl.notes.append("repairs are offered for problems of up to "
-                                  f"{WHOLE_PROBLEM_ITEMS} items, or larger ones whose other "
-                                  "pairs must all stay unordered")
+                expl.notes.append("repairs are offered for problems whose other pairs must all "
+                                  f"stay unordered, or with up to {REPAIR_SAT_ITEMS} items")
             stats["repairs_seconds"] = round(time.perf_counter() - t, 6)
     if whole_oracle is not None:
         whole_oracle.close()

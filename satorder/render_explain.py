@@ -83,7 +83,9 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
                           f"({s['scope']}).")
         if s.get("note"):
             console.print(f"[yellow]Smallest core: {s['note']}[/]")
-    if expl.repairs is not None:
+    if expl.repairs is not None and not expl.repairs:
+        console.print("\n[bold]Repairs[/]: none found and verified within the limits.")
+    elif expl.repairs is not None:
         console.print(f"\n[bold]Repairs[/] ({len(expl.repairs)}; each is a minimal set of "
                       "requirements to drop, checked by finding an order after the change):")
         focus = {v for r in core for v in r["pair"]}

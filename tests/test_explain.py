@@ -376,3 +376,26 @@ def _orientable(g: nx.Graph) -> bool:
     from conftest import brute_force_orientable
 
     return brute_force_orientable(g)
+
+
+@pytest.mark.parametrize("conflict", ["transitivity", "cycle", "forcing"])
+def test_problems_beyond_the_oracle_use_the_sat_engine_core(conflict):
+    # 80 items with fixed/forbidden arcs and one planted contradiction (generator of the
+    # benchmark suite): the SAT engine's core is shrunk to a minimal one, re-checked
+    # independently, explained step by step; repairs are checked by re-solving
+    pytest.importorskip("satorder.sat")
+    from satorder.generate import side_constraints
+    from satorder.readers import problem_from_dict
+
+    inst = side_constraints(80, seed=3, conflict=conflict)
+    p = problem_from_dict(json.loads(inst.to_json_text()))
+    e = explain(p, repairs=1, time_limit=20)
+    assert e.status == "infeasible"
+    certify.check_core_infeasible(p, e.core, minimal=True)
+    check_derivation(e.core_json(), e.derivation_json())
+    assert len(e.core) <= 4  # each planted contradiction needs at most four requirements
+    for rep in e.repairs:
+        assert rep.verified
+        from satorder.explain import repaired_problem
+
+        certify.check_order(repaired_problem(p, rep.drop), rep.succ)
