@@ -63,15 +63,17 @@ def main(kind: str) -> None:
     succ = {"union": union, "bipartite": bipartite, "band": band}[kind](rng)
     print(f"{kind}: {len(succ)} items, {sum(map(len, succ))} ordered pairs "
           f"(generated in {time.perf_counter() - t:.1f}s)", flush=True)
-    t = time.perf_counter()
+    t, c = time.perf_counter(), time.process_time()
     m = measure(succ)
-    print(f"measure {time.perf_counter() - t:.1f}s  stages {m.stats}", flush=True)
+    print(f"measure {time.perf_counter() - t:.1f}s wall, {time.process_time() - c:.1f}s CPU; "
+          f"stages (wall) {m.stats}", flush=True)
     d = m.dimension
     print(f"height {m.height.value}, width {m.width.value}, dimension {d.status} "
           f"[{d.lower}, {d.upper}], split {d.stats}, notes {d.notes}", flush=True)
-    t = time.perf_counter()
+    t, c = time.perf_counter(), time.process_time()
     check_measures(succ, m)
-    print(f"independent check {time.perf_counter() - t:.1f}s", flush=True)
+    print(f"independent check {time.perf_counter() - t:.1f}s wall, "
+          f"{time.process_time() - c:.1f}s CPU", flush=True)
 
 
 if __name__ == "__main__":

@@ -567,7 +567,7 @@ class _Part:
 def _part_width(succ, items):
     from .measure import width
 
-    return width(_local(succ, items)).value
+    return width(succ if len(items) == len(succ) else _local(succ, items)).value
 
 
 def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> _Part:
