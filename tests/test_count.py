@@ -1,0 +1,212 @@
+"""Counting answers against published counts and brute force over all labelled posets."""
+
+from __future__ import annotations
+
+import itertools
+import json
+import math
+import random
+
+import networkx as nx
+import pytest
+from order_reference import count_orientations
+
+from satorder import Problem
+from satorder.cli.main import main
+from satorder.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
+from satorder.modular import PRIME, modular_decomposition
+
+# OEIS A001035, "Number of partially ordered sets with n labeled elements"
+A001035 = [1, 1, 3, 19, 219, 4231, 130023]
+
+
+def all_posets(n: int) -> list[frozenset[tuple[int, int]]]:
+    """Every strict partial order on items 0..n-1 (as sets of pairs a<b), built by adding item k
+    to each order on 0..k-1 with a down-set D below it and an up-set U above it, D×U ordered."""
+    orders = [frozenset()]
+    for k in range(n):
+        nxt = []
+        for rel in orders:
+            below = {a: {x for x in range(k) if (x, a) in rel} for a in range(k)}
+            above = {a: {x for x in range(k) if (a, x) in rel} for a in range(k)}
+            for dmask in range(1 << k):
+                d = {i for i in range(k) if dmask >> i & 1}
+                if any(not below[a] <= d for a in d):
+                    continue
+                rest = [i for i in range(k) if i not in d]
+                for umask in range(1 << len(rest)):
+                    u = {rest[i] for i in range(len(rest)) if umask >> i & 1}
+                    if any(not above[a] <= u for a in u):
+                        continue
+                    if any((x, y) not in rel for x in d for y in u):
+                        continue
+                    nxt.append(rel | {(x, k) for x in d} | {(k, y) for y in u})
+        orders = nxt
+    return orders
+
+
+_POSETS = {n: all_posets(n) for n in range(6)}
+
+
+def test_poset_generator_matches_a001035():
+    # OEIS A001035 (labelled posets) for n = 0..5
+    assert [len(_POSETS[n]) for n in range(6)] == A001035[:6]
+
+
+def brute_count(problem: Problem) -> int:
+    """Answers among all labelled posets, each checked against the requirements directly."""
+    n = problem.n
+    total = 0
+    fixed, forbidden = problem.fixed, problem.forbidden
+    comparable = list(problem.comparable_pairs())
+    unordered = [(a, b) for a, b in itertools.combinations(range(n), 2)
+                 if problem.must_be_unordered(a, b)]
+    for rel in _POSETS[n]:
+        if all((a, b) in rel or (b, a) in rel for a, b in comparable) and \
+                all((a, b) not in rel and (b, a) not in rel for a, b in unordered) and \
+                all(arc in rel for arc in fixed) and all(arc not in rel for arc in forbidden):
+            total += 1
+    return total
+
+
+def graphs(n):
+    pairs = list(itertools.combinations(range(n), 2))
+    for mask in range(1 << len(pairs)):
+        yield [pairs[k] for k in range(len(pairs)) if mask >> k & 1]
+
+
+def plain(n, edges) -> Problem:
+    return Problem.from_lists(comparable=[(str(a), str(b)) for a, b in edges],
+                              items=[str(i) for i in range(n)])
+
+
+@pytest.mark.parametrize("n", range(0, 6))
+def test_sum_of_counts_over_all_labelled_graphs_is_a001035(n):
+    # OEIS A001035: each labelled poset is the unique transitive orientation answer counted for
+    # exactly one graph (its comparability graph), so the counts add up to the poset count
+    total = sum(count_answers(plain(n, edges)).count for edges in graphs(n))
+    assert total == A001035[n]
+
+
+@pytest.mark.parametrize("n", [1, 2, 3, 7, 12, 100])
+def test_complete_graph_has_n_factorial_answers(n):
+    # K_n: every linear order is a transitive orientation (common practice)
+    res = count_answers(plain(n, itertools.combinations(range(n), 2)))
+    assert res.method == DECOMPOSITION and res.exact
+    assert res.count == math.factorial(n)
+
+
+def test_prime_comparability_graphs_have_exactly_two():
+    # Gallai 1967 (from memory): a prime comparability graph has exactly two transitive
+    # orientations; checked here by brute force over all labelled graphs on 4 and 5 items
+    seen = 0
+    for n in (4, 5):
+        for edges in graphs(n):
+            p = plain(n, edges)
+            tree = modular_decomposition(p.adj)
+            if tree.kind != PRIME or any(c.children for c in tree.children):
+                continue  # a prime graph: the root is prime and every child a single item
+            b = count_orientations(n, edges)
+            if b:
+                seen += 1
+                assert b == 2
+                assert count_answers(p).count == 2
+    assert seen > 10
+
+
+def test_bipartite_and_odd_cycles():
+    # even cycles are comparability graphs, odd cycles of length >= 5 are not (Golumbic 1980)
+    for k in (6, 8, 10):
+        res = count_answers(Problem.from_networkx(nx.cycle_graph(k)))
+        assert res.count == 2
+    for k in (5, 7, 9):
+        assert count_answers(Problem.from_networkx(nx.cycle_graph(k))).count == 0
+
+
+def random_problem(n: int, rng: random.Random, open_pairs: bool) -> Problem:
+    """Random requirements on n items: comparable pairs, pairs that must stay unordered (all
+    others, or a list leaving some pairs open), up to two fixed and two forbidden arcs."""
+    names = [f"i{k}" for k in range(n)]
+    comparable, incomparable = [], []
+    for a, b in itertools.combinations(names, 2):
+        r = rng.random()
+        if r < 0.55:
+            comparable.append((a, b))
+        elif r < 0.8 or not open_pairs:
+            incomparable.append((a, b))
+    fixed = [(a, b) if rng.random() < 0.5 else (b, a)
+             for a, b in rng.sample(comparable, min(len(comparable), rng.randint(0, 2)))]
+    arcs = [arc for arc in itertools.permutations(names, 2) if arc not in fixed]
+    forbidden = rng.sample(arcs, min(len(arcs), rng.randint(0, 2)))
+    return Problem.from_lists(comparable=comparable,
+                              incomparable=incomparable if open_pairs else "others",
+                              fixed=fixed, forbidden=forbidden, items=names)
+
+
+@pytest.mark.parametrize("open_pairs", [False, True])
+def test_counts_match_brute_force_with_side_constraints(open_pairs):
+    rng = random.Random(11 if open_pairs else 12)
+    for _ in range(60):
+        n = rng.randint(1, 5)
+        p = random_problem(n, rng, open_pairs)
+        res = count_answers(p)
+        assert res.exact
+        assert res.method == (ENUMERATION if p.has_open_pairs else DECOMPOSITION)
+        assert res.count == brute_count(p), p
+
+
+def test_decomposition_and_enumeration_agree_on_six_items():
+    rng = random.Random(5)
+    for _ in range(25):
+        p = random_problem(6, rng, open_pairs=False)
+        a = count_answers(p, method=DECOMPOSITION)
+        b = count_answers(p, method=ENUMERATION)
+        assert b.exact and a.count == b.count
+
+
+def test_series_node_arcs_count_linear_extensions():
+    # K_5 with a<b<c fixed: linear orders of 5 with 3 items in a given relative order: 5!/3!
+    names = "abcde"
+    p = Problem.from_lists(comparable=list(itertools.combinations(names, 2)),
+                           fixed=[("a", "b"), ("b", "c")])
+    assert count_answers(p).count == 20
+    # a cycle of fixed arcs on a series node: no answer
+    p = Problem.from_lists(comparable=list(itertools.combinations(names, 2)),
+                           fixed=[("a", "b"), ("b", "c"), ("c", "a")])
+    res = count_answers(p)
+    assert res.count == 0 and res.exact
+
+
+def test_enumeration_limit_gives_lower_bound():
+    p = Problem.from_lists(comparable=list(itertools.combinations("abcd", 2)))
+    res = count_answers(p, method=ENUMERATION, limit=5)
+    assert not res.exact and res.count == 5
+    assert res.to_json()["lower_bound"] == 5
+
+
+def test_check_count_catches_a_wrong_count():
+    from satorder.errors import CertificateError
+
+    p = Problem.from_lists(comparable=[("a", "b"), ("b", "c")])
+    res = count_answers(p)
+    check_count(res)
+    assert res.verified and res.count == 2
+    res.count = 3
+    with pytest.raises(CertificateError):
+        check_count(res)
+
+
+def test_cli_count_json(tmp_path, capsys):
+    path = tmp_path / "k6.txt"
+    path.write_text("\n".join(f"{a} {b}" for a, b in itertools.combinations("abcdef", 2)))
+    assert main(["count", str(path), "--json"]) == 0
+    doc = json.loads(capsys.readouterr().out)
+    assert doc["count"] == 720 and doc["exact"] and doc["method"] == DECOMPOSITION
+    assert doc["verified"] is True
+
+
+def test_cli_count_bad_input(tmp_path, capsys):
+    path = tmp_path / "bad.json"
+    path.write_text('{"comparable": [["a"]]}')
+    assert main(["count", str(path), "--json"]) == 2
+    assert main(["count", str(path), "--limit", "0"]) == 2
