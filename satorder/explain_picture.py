@@ -87,7 +87,8 @@ def explanation_svg(expl, title: str | None = None) -> str:
     for key in ("fixed", "forbidden"):
         out.append(
             f'<marker id="arrow-{key}" viewBox="0 0 10 10" refX="10" refY="5" '
-            f'markerWidth="9" markerHeight="9" orient="auto-start-reverse">'
+            f'markerUnits="userSpaceOnUse" markerWidth="13" markerHeight="13" '
+            f'orient="auto-start-reverse">'
             f'<path d="M0,0 L10,5 L0,10 z" fill="{COLOURS[key]}"/></marker>'
         )
     out.append("</defs>")
@@ -126,12 +127,20 @@ def explanation_svg(expl, title: str | None = None) -> str:
             line(a, b, COLOURS[kind], 2.5, dash="7,5")
         elif kind == "fixed":
             line(a, b, COLOURS[kind], 3.5, marker="arrow-fixed", shorten=17)
-        else:
-            line(a, b, COLOURS[kind], 2.5, dash="2,4", marker="arrow-forbidden", shorten=17)
+        else:  # a bent arrow, so it stays visible beside a straight line on the same pair
             (x1, y1), (x2, y2) = pos[a], pos[b]
-            mx, my = (x1 + x2) / 2, (y1 + y2) / 2
-            out.append(f'<text x="{mx:.1f}" y="{my + 6:.1f}" text-anchor="middle" '
-                       f'font-size="18" fill="{COLOURS[kind]}">✕</text>')
+            dx, dy = x2 - x1, y2 - y1
+            d = math.hypot(dx, dy) or 1.0
+            x1, y1 = x1 + dx * 16 / d, y1 + dy * 16 / d
+            x2, y2 = x2 - dx * 16 / d, y2 - dy * 16 / d
+            bend = min(45.0, 0.3 * d)
+            qx, qy = (x1 + x2) / 2 - dy * bend / d, (y1 + y2) / 2 + dx * bend / d
+            out.append(f'<path d="M{x1:.1f},{y1:.1f} Q{qx:.1f},{qy:.1f} {x2:.1f},{y2:.1f}" '
+                       f'fill="none" stroke="{COLOURS[kind]}" stroke-width="2.5" '
+                       f'stroke-dasharray="3,4" marker-end="url(#arrow-forbidden)"/>')
+            mx, my = (x1 + 2 * qx + x2) / 4, (y1 + 2 * qy + y2) / 4
+            out.append(f'<text x="{mx:.1f}" y="{my + 8:.1f}" text-anchor="middle" '
+                       f'font-size="24" font-weight="bold" fill="{COLOURS[kind]}">✕</text>')
     for v in order:
         x, y = pos[v]
         fill = COLOURS["obstruction"] if v in ob else "white"
@@ -148,7 +157,7 @@ def explanation_svg(expl, title: str | None = None) -> str:
         ("comparable", "core: must be ordered", ""),
         ("incomparable", "core: must stay unordered", "7,5"),
         ("fixed", "core: fixed arc", ""),
-        ("forbidden", "core: forbidden arc", "2,4"),
+        ("forbidden", "core: forbidden arc (bent, crossed out)", "3,4"),
     ]
     rows = [row for row in legend if row[0] in kinds] + [("graph", "other comparable pair", "")]
     x0 = 60.0
