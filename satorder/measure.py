@@ -240,6 +240,18 @@ class Measures:
     stats: dict = field(default_factory=dict)
     verified: bool = False
 
+    def hasse_graph(self, names: list[str] | None = None):
+        """The Hasse diagram as a networkx DiGraph (arc lower → upper), each node carrying its
+        ``level`` (1 = minimal items), on item ids or on ``names``."""
+        import networkx as nx
+
+        label = (lambda i: i) if names is None else names.__getitem__
+        g = nx.DiGraph()
+        for k, part in enumerate(self.height.partition, 1):
+            g.add_nodes_from((label(i) for i in part), level=k)
+        g.add_edges_from((label(a), label(b)) for a, b in self.hasse)
+        return g
+
     def to_json(self, names: list[str]) -> dict:
         def nm(items):
             return [names[i] for i in items]
@@ -268,10 +280,13 @@ class Measures:
         return doc
 
 
-def measure(succ: list[set[int]], weights: dict[int, int] | None = None,
+def measure(succ, weights: dict[int, int] | None = None,
             sat_limit: int = 40, time_limit: float | None = 60.0, progress=None) -> Measures:
     """Height, width, partitions, Hasse diagram, a linear extension and the dimension of an
     order (plus weighted chain and antichain when ``weights`` is given; missing items weigh 1).
+
+    ``succ`` is an order's successor sets, or a feasible :class:`satorder.Answer` (its order is
+    measured and its problem's ``weights`` used unless ``weights`` is given).
 
     ``progress(stage)`` is called before each stage, if given.
 
@@ -282,6 +297,12 @@ def measure(succ: list[set[int]], weights: dict[int, int] | None = None,
     import time
 
     from .dimension import dimension
+
+    if hasattr(succ, "succ") and hasattr(succ, "problem"):
+        if succ.succ is None:
+            raise ValueError(f"no order to measure: the answer is {succ.status}")
+        weights = succ.problem.weights if weights is None else weights
+        succ = succ.succ
 
     def stage(name):
         if progress is not None:

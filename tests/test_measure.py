@@ -211,3 +211,15 @@ def test_measure_on_solved_problem_matches_networkx():
     # a maximum independent set of a bipartite graph: n − maximum matching (König 1931)
     match = nx.max_weight_matching(g, maxcardinality=True)
     assert m.width.value == 30 - len(match)
+
+
+def test_python_api_takes_answers_and_returns_networkx_graphs():
+    p = Problem.from_lists(comparable=[("kiln", "loom"), ("loom", "quay"), ("kiln", "quay")],
+                           items=["vat"], weights={"vat": 9})
+    ans = solve(p)
+    m = measure(ans)
+    g = m.hasse_graph(p.items)
+    assert isinstance(g, nx.DiGraph) and g.number_of_edges() == 2
+    assert {g.nodes[x]["level"] for x in p.items} == {1, 2, 3}
+    assert m.weighted_antichain.value == 9 + 1  # weights taken from the problem
+    assert nx.is_isomorphic(g, nx.transitive_reduction(ans.to_networkx()))
