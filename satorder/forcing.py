@@ -9,16 +9,17 @@ implication class contains an arc together with its reverse (Golumbic, Thm 5.?; 
 
 How it is computed here (near-linear work in practice):
 
-* Around each item ``v``, arcs ``v→x`` and ``v→y`` are Γ-related exactly when ``x`` and ``y`` lie
-  in the same connected component of the *complement* of the neighbourhood ``G[N(v)]``.  A
-  breadth-first search in that complement (set differences per item, not per pair of
-  neighbours) yields a spanning tree per co-component; each tree edge is one Γ step with its
-  witness pair ``{x, y}`` (a pair that must stay unordered).
+* Around each item ``v``, arcs ``v→x`` and ``v→y`` are tied by Γ (directly or through other
+  arcs at ``v``) exactly when ``x`` and ``y`` lie in the same connected component of the
+  *complement* of the neighbourhood ``G[N(v)]``.  A frontier-at-a-time breadth-first search in
+  that complement (one set intersection per frontier, not per pair of neighbours) finds these
+  co-components; each ties all its arcs at ``v`` to one root arc.
 * Each undirected edge ``e`` gets two nodes, one per direction; a Γ step links the matching
   directions.  Connected components of this doubled graph (scipy) are the implication classes.
   An edge whose two directions fall in one component is a *conflict*: a breadth-first path
-  between them is a chain of forcing steps from an arc to its own reverse, each step naming its
-  witness — the conflict certificate.
+  between them, with each tie expanded into single Γ steps through the complement of the
+  neighbourhood, is a chain of forcing steps from an arc to its own reverse, each step naming
+  its witness pair (a pair that must stay unordered) — the conflict certificate.
 * Without conflict, each class is oriented by a consistent rule: keep the class whose smallest
   tail item is smaller than its smallest head item.  By Gallai's modular decomposition theorem
   the classes are the pairs of children of series nodes (where this rule orders the children
@@ -35,6 +36,7 @@ How it is computed here (near-linear work in practice):
 from __future__ import annotations
 
 from dataclasses import dataclass
+from itertools import chain
 
 import numpy as np
 from scipy.sparse import coo_matrix
@@ -73,55 +75,60 @@ class ForcingResult:
 
     def successor_sets(self) -> list[set[int]]:
         """The orientation as successor sets (a transitive orientation is its own closure)."""
-        succ: list[set[int]] = [set() for _ in range(self.n)]
-        for a, b in self.arcs():
-            succ[a].add(b)
-        return succ
+        assert self.up is not None
+        tails = np.where(self.up, self.lo, self.hi)
+        heads = np.where(self.up, self.hi, self.lo)
+        order = np.argsort(tails, kind="stable")
+        heads_l = heads[order].tolist()
+        ends = np.cumsum(np.bincount(tails, minlength=self.n)).tolist()
+        starts = [0] + ends[:-1]
+        return [set(heads_l[s:e]) for s, e in zip(starts, ends)]
 
 
-def _edge_ids(adj: list[set[int]]):
+def _edge_arrays(adj: list[set[int]]):
+    """Endpoints ``lo < hi`` of every edge, sorted by the key ``lo * n + hi`` (the edge id is
+    the rank of its key, found with ``searchsorted``: no per-pair dictionary)."""
     n = len(adj)
-    lo: list[int] = []
-    hi: list[int] = []
-    for v in range(n):
-        for u in adj[v]:
-            if v < u:
-                lo.append(v)
-                hi.append(u)
-    eid = {a * n + b: k for k, (a, b) in enumerate(zip(lo, hi))}
-    return lo, hi, eid
+    deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
+    src = np.repeat(np.arange(n, dtype=np.int64), deg)
+    dst = np.fromiter(chain.from_iterable(adj), dtype=np.int64, count=int(deg.sum()))
+    keep = src < dst
+    key = src[keep] * n + dst[keep]
+    key.sort()
+    return key // n, key % n, key
 
 
-def _gamma_steps(adj: list[set[int]], eid: dict[int, int]):
-    """Spanning Γ steps: for each item v, a spanning forest of the complement of G[N(v)].
+def _co_components(adj: list[set[int]]):
+    """For each item v, the connected components of the complement of ``G[N(v)]``.
 
-    Yields three parallel lists (e1, e2, flip): edges e1 = {v, y} and e2 = {v, x} with x, y
-    non-adjacent; ``flip`` is True when "same direction at v" means opposite lo→hi senses.
+    Breadth-first search in the complement, one frontier at a time: the items of ``N(v)`` not
+    yet reached that are adjacent to *every* frontier item stay unreached; all others join.
+    Yields flat lists (centre v, root r, member x) meaning: edges {v, r} and {v, x} lie in one
+    co-component around v, hence in one implication class, with the same direction at v.
     """
-    n = len(adj)
-    e1: list[int] = []
-    e2: list[int] = []
-    flip: list[bool] = []
-    for v in range(n):
-        nb = adj[v]
+    vs: list[int] = []
+    rs: list[int] = []
+    xs: list[int] = []
+    inter = set.intersection
+    for v, nb in enumerate(adj):
         if len(nb) < 2:
             continue
         unvisited = set(nb)
         while unvisited:
-            queue = [unvisited.pop()]
-            for y in queue:
-                found = unvisited - adj[y]
-                if not found:
-                    continue
-                unvisited -= found
-                queue.extend(found)
-                ey = eid[v * n + y] if v < y else eid[y * n + v]
-                vy = v < y
-                for x in found:
-                    e1.append(ey)
-                    e2.append(eid[v * n + x] if v < x else eid[x * n + v])
-                    flip.append(vy != (v < x))
-    return e1, e2, flip
+            r = unvisited.pop()
+            frontier = [r]
+            members: list[int] = []
+            while frontier and unvisited:
+                stay = inter(unvisited, *[adj[y] for y in frontier])
+                frontier = list(unvisited - stay) if stay else list(unvisited)
+                unvisited = stay
+                members += frontier
+            if members:
+                k = len(members)
+                vs += [v] * k
+                rs += [r] * k
+                xs += members
+    return vs, rs, xs
 
 
 def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
@@ -131,17 +138,18 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``.
     """
     n = len(adj)
-    lo_l, hi_l, eid = _edge_ids(adj)
-    m = len(lo_l)
-    lo = np.asarray(lo_l, dtype=np.int64)
-    hi = np.asarray(hi_l, dtype=np.int64)
+    lo, hi, keys = _edge_arrays(adj)
+    m = len(lo)
     if m == 0:
         return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
-    e1_l, e2_l, flip_l = _gamma_steps(adj, eid)
-    e1 = np.asarray(e1_l, dtype=np.int64)
-    e2 = np.asarray(e2_l, dtype=np.int64)
-    fl = np.asarray(flip_l, dtype=np.int64)
-    del e1_l, e2_l, flip_l
+    vs_l, rs_l, xs_l = _co_components(adj)
+    vs = np.asarray(vs_l, dtype=np.int64)
+    rs = np.asarray(rs_l, dtype=np.int64)
+    xs = np.asarray(xs_l, dtype=np.int64)
+    del vs_l, rs_l, xs_l
+    e1 = np.searchsorted(keys, np.minimum(vs, rs) * n + np.maximum(vs, rs))
+    e2 = np.searchsorted(keys, np.minimum(vs, xs) * n + np.maximum(vs, xs))
+    fl = ((vs < rs) != (vs < xs)).astype(np.int64)
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
     src = np.concatenate([2 * e1, 2 * e1 + 1])
     dst = np.concatenate([2 * e2 + fl, 2 * e2 + 1 - fl])
@@ -153,7 +161,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     c1 = comp[1::2]
     bad = np.flatnonzero(c0 == c1)
     if len(bad):
-        chain = _conflict_chain(graph, int(bad[0]), lo, hi)
+        chain = _conflict_chain(adj, graph, int(bad[0]), lo, hi)
         return ForcingResult(n, False, lo, hi, None, ncomp // 2, chain)
     # orient each class: keep the direction whose smallest tail < smallest head
     big = np.iinfo(np.int64).max
@@ -169,8 +177,26 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     return ForcingResult(n, True, lo, hi, up, ncomp // 2, None)
 
 
-def _conflict_chain(graph, e: int, lo: np.ndarray, hi: np.ndarray) -> list[ForcingStep]:
-    """Shortest chain of Γ steps from arc lo[e]→hi[e] to its reverse, with witnesses."""
+def _complement_path(adj: list[set[int]], nb: set[int], r: int, x: int) -> list[int]:
+    """A path r, ..., x of items of ``nb`` in which consecutive items are non-adjacent."""
+    pred = {r: r}
+    queue = [r]
+    for y in queue:
+        if y == x:
+            break
+        for z in nb - adj[y]:
+            if z not in pred and z != y:
+                pred[z] = y
+                queue.append(z)
+    path = [x]
+    while path[-1] != r:
+        path.append(pred[path[-1]])
+    return path[::-1]
+
+
+def _conflict_chain(adj, graph, e: int, lo: np.ndarray, hi: np.ndarray) -> list[ForcingStep]:
+    """Shortest chain (in the link graph) from arc lo[e]→hi[e] to its reverse, expanded into
+    single Γ steps, each with its witness pair."""
     _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
     path = [2 * e + 1]
     while path[-1] != 2 * e:
@@ -185,6 +211,10 @@ def _conflict_chain(graph, e: int, lo: np.ndarray, hi: np.ndarray) -> list[Forci
     steps = [ForcingStep(arc(path[0]), None)]
     for node in path[1:]:
         (a, b), (c, d) = steps[-1].arc, arc(node)
-        witness = (b, d) if a == c else (a, c)
-        steps.append(ForcingStep((c, d), witness))
+        if a == c:  # both out of a: walk b ... d through non-adjacent neighbours of a
+            walk = _complement_path(adj, adj[a], b, d)
+            steps += [ForcingStep((a, z), (y, z)) for y, z in zip(walk, walk[1:])]
+        else:  # both into b: walk a ... c
+            walk = _complement_path(adj, adj[b], a, c)
+            steps += [ForcingStep((z, b), (y, z)) for y, z in zip(walk, walk[1:])]
     return steps
