@@ -15,7 +15,7 @@ from ..errors import CertificateError, InputError
 from .common import err
 
 # one module per command; each has add_parser(subparsers) and run(args) -> int
-COMMANDS = ["solve", "demo", "measure", "explain", "generate", "bench", "count", "orders"]
+COMMANDS = ["solve", "demo", "measure", "explain", "generate", "bench", "cnf", "count", "orders"]
 
 
 class _Parser(argparse.ArgumentParser):

@@ -1,0 +1,262 @@
+"""The SAT engine against the forcing algorithm, brute force over all posets, and its own CNF."""
+
+from __future__ import annotations
+
+import itertools
+import random
+from functools import cache
+
+import networkx as nx
+import pytest
+from conftest import all_graphs
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from satorder import Problem, certify
+from satorder.errors import InputError
+from satorder.problem import ProblemBuilder
+from satorder.sat import SatSession, find_core, resolve_solver, solve_sat
+from satorder.solve import solve, solve_forcing, verify
+
+# ---------------------------------------------------------------------- brute force
+
+
+@cache
+def all_posets(n: int) -> tuple[frozenset, ...]:
+    """Every strict partial order on items 0..n-1 as a frozenset of arcs (brute force: each
+    pair unordered / one way / the other, keep the transitive ones)."""
+    pairs = list(itertools.combinations(range(n), 2))
+    out = []
+    for states in itertools.product((0, 1, 2), repeat=len(pairs)):
+        arcs = set()
+        for (a, b), s in zip(pairs, states):
+            if s == 1:
+                arcs.add((a, b))
+            elif s == 2:
+                arcs.add((b, a))
+        if all((a, d) in arcs for a, b in arcs for c, d in arcs if b == c):
+            out.append(frozenset(arcs))
+    return tuple(out)
+
+
+def test_poset_enumeration_matches_oeis():
+    # OEIS A001035: labeled posets on n items: 1, 1, 3, 19, 219, 4231 for n = 0..5
+    assert [len(all_posets(n)) for n in range(6)] == [1, 1, 3, 19, 219, 4231]
+
+
+def meets(problem: Problem, arcs: frozenset) -> bool:
+    for a, b in problem.comparable_pairs():
+        if (a, b) not in arcs and (b, a) not in arcs:
+            return False
+    for a, b in problem.incomparable_pairs():
+        if (a, b) in arcs or (b, a) in arcs:
+            return False
+    if any(arc not in arcs for arc in problem.fixed):
+        return False
+    return not any(arc in arcs for arc in problem.forbidden)
+
+
+def brute_force_feasible(problem: Problem) -> bool:
+    return any(meets(problem, arcs) for arcs in all_posets(problem.n))
+
+
+def random_problem(rnd: random.Random, n: int, others: bool | None = None) -> Problem:
+    """A random valid problem: each pair comparable / must stay unordered / open, plus a few
+    fixed and forbidden arcs (invalid combinations are skipped, as the reader would refuse)."""
+    names = [f"i{k}" for k in range(n)]
+    b = ProblemBuilder("<random>")
+    for x in names:
+        b.item(x, "items")
+    if others is None:
+        others = rnd.random() < 0.3
+    pc = rnd.uniform(0.2, 0.8)
+    if others:
+        b.incomparable_others()
+    else:
+        b.incomparable_list()
+    for x, y in itertools.combinations(names, 2):
+        r = rnd.random()
+        if r < pc:
+            b.comparable(x, y, "c")
+        elif not others and rnd.random() < 0.7:
+            b.incomparable(x, y, "i")
+    for _ in range(rnd.randint(0, 6)):
+        x, y = rnd.sample(names, 2)
+        try:
+            if rnd.random() < 0.5:
+                b.fixed(x, y, "f")
+            else:
+                b.forbidden(x, y, "x")
+        except InputError:
+            pass
+    return b.build()
+
+
+def _agree(problem: Problem, expected: bool, solver: str | None = None) -> None:
+    ans = solve_sat(problem, solver=solver)
+    verify(ans)  # raises CertificateError on a wrong order or a core that is not infeasible
+    assert ans.verified
+    assert ans.feasible == expected, (problem, ans.to_json())
+
+
+# ---------------------------------------------------------------------- plain problems
+
+
+@pytest.mark.parametrize("n", [2, 3, 4, 5])
+def test_every_small_graph_sat_agrees_with_forcing(n):
+    for g in all_graphs(n):
+        p = Problem.from_networkx(g)
+        f = solve_forcing(p)
+        verify(f)
+        _agree(p, f.feasible)
+
+
+def test_random_plain_graphs_sat_agrees_with_forcing():
+    rnd = random.Random(3)
+    for _ in range(400):
+        n = rnd.randint(5, 12)
+        g = nx.gnp_random_graph(n, rnd.uniform(0.2, 0.9), seed=rnd.randrange(1 << 30))
+        p = Problem.from_networkx(g)
+        f = solve_forcing(p)
+        verify(f)
+        _agree(p, f.feasible)
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.integers(min_value=1, max_value=9).flatmap(
+    lambda n: st.tuples(st.just(n), st.sets(st.tuples(st.integers(0, n - 1),
+                                                      st.integers(0, n - 1))))))
+def test_hypothesis_plain_sat_agrees_with_forcing(data):
+    n, pairs = data
+    g = nx.Graph()
+    g.add_nodes_from(range(n))
+    g.add_edges_from((a, b) for a, b in pairs if a != b)
+    p = Problem.from_networkx(g)
+    f = solve_forcing(p)
+    ans = solve(p, engine="both")  # raises EngineDisagreement if the verdicts differ
+    assert ans.verified and ans.feasible == f.feasible
+
+
+@pytest.mark.parametrize("k", [5, 7, 9])
+def test_odd_cycles_infeasible_with_verified_core(k):
+    # Golumbic 1980, ch. 5: odd cycles of length >= 5 are not comparability graphs
+    ans = solve(Problem.from_networkx(nx.cycle_graph(k)), engine="sat")
+    assert ans.status == "infeasible" and ans.verified
+    certify.check_core_infeasible(ans.problem, ans.core, minimal=True)
+
+
+def test_interval_graph_complement_is_feasible():
+    # Gilmore & Hoffman 1964: the complement of an interval graph is a comparability graph
+    rnd = random.Random(5)
+    ivs = []
+    for _ in range(25):
+        a = rnd.uniform(0, 10)
+        ivs.append((a, a + rnd.uniform(0.2, 3)))
+    g = nx.Graph()
+    g.add_nodes_from(range(len(ivs)))
+    for i, j in itertools.combinations(range(len(ivs)), 2):
+        if ivs[i][1] < ivs[j][0] or ivs[j][1] < ivs[i][0]:
+            g.add_edge(i, j)
+    ans = solve(Problem.from_networkx(g), engine="sat")
+    assert ans.status == "feasible" and ans.verified
+
+
+def test_plain_problem_with_side_constraint_matches_forcing_plus_brute_force():
+    # the forcing algorithm's verdict plus one fixed arc: SAT and brute force must agree
+    rnd = random.Random(11)
+    for _ in range(150):
+        n = rnd.randint(3, 5)
+        g = nx.gnp_random_graph(n, 0.6, seed=rnd.randrange(1 << 30))
+        if not g.number_of_edges():
+            continue
+        a, b = rnd.choice(list(g.edges()))
+        p = Problem.from_networkx(g).with_requirements(fixed=[(a, b)])
+        _agree(p, brute_force_feasible(p))
+
+
+# ---------------------------------------------------------------------- side constraints
+
+
+def test_random_side_constraints_and_open_pairs_match_brute_force():
+    rnd = random.Random(20261201)
+    seen = {True: 0, False: 0}
+    for k in range(500):
+        p = random_problem(rnd, rnd.randint(2, 5))
+        expected = brute_force_feasible(p)
+        seen[expected] += 1
+        _agree(p, expected, solver=("cadical195", "glucose4", "minisat22")[k % 3])
+    assert min(seen.values()) > 40  # both verdicts well represented
+
+
+def test_selector_session_agrees_and_cores_are_minimal():
+    rnd = random.Random(8)
+    for _ in range(120):
+        p = random_problem(rnd, rnd.randint(3, 5))
+        expected = brute_force_feasible(p)
+        with SatSession(p, selectors=True) as s:
+            assert s.solve() is expected
+            if expected:
+                certify.check_order(p, s.order())
+        if not expected:
+            core, stats = find_core(p)
+            assert stats["minimal"]
+            certify.check_core_infeasible(p, core, minimal=True)
+
+
+def test_keep_drops_the_other_requirements():
+    # a<b, b<c fixed and a, c must stay unordered: infeasible; dropping any one fixes it
+    p = Problem.from_lists(fixed=[("a", "b"), ("b", "c")], incomparable=[("a", "c")])
+    a, b, c = (p.index[x] for x in "abc")
+    wanted = [("fixed", (a, b)), ("fixed", (b, c)), ("incomparable", (min(a, c), max(a, c)))]
+    with SatSession(p, selectors=True) as s:
+        assert s.solve() is False
+        assert set(wanted) <= set(s.core())
+        assert s.solve(keep=wanted) is False
+        for drop in wanted:
+            assert s.solve(keep=[k for k in wanted if k != drop]) is True
+            order = s.order()
+            free = Problem(items=p.items, adj=[set(), set(), set()], incomparable=[set()] * 3)
+            certify.check_order(free, order)  # a strict partial order
+            for kind, (x, y) in wanted:
+                if (kind, (x, y)) != drop:
+                    assert (y in order[x]) if kind == "fixed" else (y not in order[x])
+            if drop[0] == "incomparable":
+                assert c in order[a]  # transitivity forces a<c once a, c may be ordered
+
+
+def test_lazy_and_eager_transitivity_agree():
+    rnd = random.Random(21)
+    for _ in range(150):
+        p = random_problem(rnd, rnd.randint(2, 6))
+        verdicts = set()
+        for lazy in (True, False):
+            with SatSession(p, lazy=lazy) as s:
+                r = s.solve()
+                if r:
+                    certify.check_order(p, s.order())
+                verdicts.add(r)
+        assert len(verdicts) == 1
+
+
+# ---------------------------------------------------------------------- back ends, limits
+
+
+def test_solver_names():
+    assert resolve_solver(None) == "cadical195"
+    assert resolve_solver("Glucose4") == "glucose4"
+    with pytest.raises(InputError, match="unknown SAT solver"):
+        resolve_solver("no-such-solver")
+
+
+def _hard_problem(n: int = 70, seed: int = 1) -> Problem:
+    """Random open-pair problem (no hidden answer) dense enough that no solver finishes
+    in a few milliseconds."""
+    rnd = random.Random(seed)
+    return random_problem(rnd, n, others=False)
+
+
+@pytest.mark.parametrize("solver", ["cadical195", "glucose4"])
+def test_tiny_time_limit_gives_unknown(solver):
+    ans = solve(_hard_problem(), engine="sat", solver=solver, time_limit=0.001)
+    assert ans.status == "unknown"
+    assert not ans.verified
