@@ -34,9 +34,16 @@ from itertools import combinations, product
 from typing import Any
 
 from . import certify, derivation, replay
+from .core_check import check_minimality_witnesses
 from .errors import CertificateError
 from .forcing import ForcingResult, transitive_orientation
-from .mus import RequirementOracle, correction_sets, minimal_core, smallest_core
+from .mus import (
+    RequirementOracle,
+    core_oracle,
+    correction_sets,
+    minimal_core,
+    smallest_core,
+)
 from .obstruction import chain_items, find_obstruction, induced_adjacency, minimise_obstruction
 from .problem import Problem
 
@@ -44,7 +51,8 @@ FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
 WHOLE_PROBLEM_ITEMS = 24  # up to this many items, smallest cores and repairs range over all
 ORACLE_ITEMS = 60  # up to this many items, the core is found by the all-triples oracle
 REPAIR_SAT_ITEMS = 3000  # repairs checked by re-solving list every unordered pair explicitly
-MINIMALITY_CHECK_ITEMS = 40  # independent minimality re-check up to this many core items
+MINIMALITY_CHECK_ITEMS = 40  # all-triples re-solve of a core up to this many items
+SUMMARY_ITEMS = 200  # solve's summary shows a minimal core spanning up to this many items
 
 
 @dataclass
@@ -368,6 +376,24 @@ def _engine_core(problem: Problem, time_limit: float):
     return core, bool(ans.stats.get("core", {}).get("minimal"))
 
 
+def check_core(problem: Problem, core: list[dict], replayed: bool) -> None:
+    """Independent checks of a core: one witness order per member shows minimality
+    (:func:`satorder.core_check.check_minimality_witnesses`); infeasibility is shown by the
+    replayed derivation (``replayed``) and, for cores on few items, also re-solved by
+    :func:`satorder.certify.check_core_infeasible`."""
+    witnesses = {}
+    with core_oracle(core) as oracle:
+        everything = range(len(core))
+        for k in everything:
+            ok, arcs = oracle.check([j for j in everything if j != k])
+            if not ok:
+                raise CertificateError(f"the core is not minimal: member {k} can be dropped")
+            witnesses[k] = arcs
+    check_minimality_witnesses(problem, core, witnesses)
+    if not replayed or len(_items_of(core)) <= MINIMALITY_CHECK_ITEMS:
+        certify.check_core_infeasible(problem, core)
+
+
 def minimal_core_of(answer) -> list[dict] | None:
     """A verified minimal core for an infeasible :class:`~satorder.answer.Answer`, computed from
     its forcing chain (shrunk to a minimal obstruction first) or from the engine's core; ``None``
@@ -379,11 +405,19 @@ def minimal_core_of(answer) -> list[dict] | None:
         start = [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in answer.core]
     else:
         return None
-    if len(_items_of(start)) > MINIMALITY_CHECK_ITEMS:
+    if len(_items_of(start)) > SUMMARY_ITEMS:
         return None
-    with RequirementOracle(start) as oracle:
+    with core_oracle(start) as oracle:
         core = [start[k] for k in minimal_core(oracle, range(len(start)))]
-    certify.check_core_infeasible(p, core, minimal=True)
+    try:
+        steps = derivation.build_derivation(core)
+    except derivation.DerivationBudgetExceeded:
+        steps = None
+    if steps is not None:
+        replay.check_derivation(
+            [{"kind": r["kind"], "pair": [p.items[v] for v in r["pair"]]} for r in core],
+            derivation.to_json(steps, core, p.items))
+    check_core(p, core, replayed=steps is not None)
     return core
 
 
@@ -423,7 +457,7 @@ def explain(
             expl.obstruction = ob
             stats["obstruction_seconds"] = round(time.perf_counter() - t, 6)
             start = _chain_core(problem, ob)
-            with RequirementOracle(start) as oracle:
+            with core_oracle(start) as oracle:
                 core = [start[k] for k in minimal_core(oracle, range(len(start)))]
         elif problem.is_plain:
             certify.check_order(problem, res.successor_sets())
@@ -445,14 +479,11 @@ def explain(
                 stats["seconds"] = round(time.perf_counter() - t0, 6)
                 return expl
             found_core, engine_minimal = found_core
-            if len(_items_of(found_core)) <= ORACLE_ITEMS:
-                with RequirementOracle(found_core) as oracle:
-                    core = [found_core[k] for k in minimal_core(oracle, range(len(found_core)))]
-            else:  # shrunk by the SAT engine's deletion loop
+            if engine_minimal:  # the SAT engine's deletion loop finished
                 core = found_core
-                if not engine_minimal:
-                    expl.notes.append("the SAT engine ran out of time shrinking the core: it "
-                                      "is infeasible but may not be minimal")
+            else:
+                with core_oracle(found_core) as oracle:
+                    core = [found_core[k] for k in minimal_core(oracle, range(len(found_core)))]
     if core is None:
         reqs = requirements(problem)
         whole_oracle = RequirementOracle(reqs)
@@ -466,13 +497,7 @@ def explain(
         core = [reqs[k] for k in minimal_core(whole_oracle, found)]
 
     expl.status, expl.core = INFEASIBLE, core
-    say("checking the core")
     items = _items_of(core)
-    certify.check_core_infeasible(problem, core, minimal=len(items) <= MINIMALITY_CHECK_ITEMS)
-    if len(items) > MINIMALITY_CHECK_ITEMS:
-        expl.notes.append(f"the core spans {len(items)} items: its minimality was established by "
-                          "the extractor, not re-checked independently")
-
     say("derivation")
     t = time.perf_counter()
     try:
@@ -482,6 +507,10 @@ def explain(
     if expl.steps is not None:
         replay.check_derivation(expl.core_json(), expl.derivation_json())
     stats["derivation_seconds"] = round(time.perf_counter() - t, 6)
+    say("checking the core")
+    t = time.perf_counter()
+    check_core(problem, core, replayed=expl.steps is not None)
+    stats["core_check_seconds"] = round(time.perf_counter() - t, 6)
 
     if smallest or repairs:
         if small:
@@ -502,12 +531,12 @@ def explain(
             info: dict[str, Any] = {"proved": proved, "scope": scope}
             if best is not None:
                 found = [universe_reqs[k] for k in best]
-                certify.check_core_infeasible(problem, found, minimal=True)
                 info["size"] = len(found)
                 if len(found) < len(core):
                     expl.core = found
                     expl.steps = derivation.build_derivation(found)
                     replay.check_derivation(expl.core_json(), expl.derivation_json())
+                    check_core(problem, found, replayed=True)
             else:
                 info["note"] = f"gave up after {time_limit:g} s; the core shown is minimal"
             if not small:

@@ -127,6 +127,79 @@ class RequirementOracle:
         self.close()
 
 
+class SessionOracle:
+    """The same ``check`` interface over the SAT engine's compact encoding with lazy
+    transitivity (:class:`satorder.sat.SatSession` with selectors), for requirement sets whose
+    items are too many for the all-triples :class:`RequirementOracle`.  The requirements are
+    posed as a problem of their own: only their pairs are comparable or unordered, all other
+    pairs open."""
+
+    def __init__(self, requirements: list[dict], time_limit: float | None = None):
+        from .problem import Problem
+        from .sat import SatSession
+
+        self.requirements = list(requirements)
+        self.items = sorted({v for r in self.requirements for v in r["pair"]})
+        pos = {v: k for k, v in enumerate(self.items)}
+        n = len(self.items)
+        adj: list[set[int]] = [set() for _ in range(n)]
+        inc: list[set[int]] = [set() for _ in range(n)]
+        fixed, forbidden = [], []
+        self.keys = []
+        for r in self.requirements:
+            a, b = pos[r["pair"][0]], pos[r["pair"][1]]
+            kind = r["kind"]
+            if kind in ("comparable", "incomparable"):
+                (adj if kind == "comparable" else inc)[a].add(b)
+                (adj if kind == "comparable" else inc)[b].add(a)
+                self.keys.append((kind, (min(a, b), max(a, b))))
+            else:
+                (fixed if kind == "fixed" else forbidden).append((a, b))
+                if kind == "fixed":
+                    adj[a].add(b)
+                    adj[b].add(a)
+                self.keys.append((kind, (a, b)))
+        sub = Problem(items=[str(v) for v in self.items], adj=adj, incomparable=inc,
+                      fixed=fixed, forbidden=forbidden)
+        self.session = SatSession(sub, selectors=True)
+        self._index = {key: k for k, key in enumerate(self.keys)}
+        self.time_limit = time_limit
+        self.calls = 0
+
+    def check(self, active: Iterable[int]):
+        self.calls += 1
+        active = list(active)
+        res = self.session.solve(keep=[self.keys[k] for k in active], time_limit=self.time_limit)
+        if res is None:
+            raise TimeoutError("the SAT engine reached its time limit")
+        if res:
+            succ = self.session.order()
+            return True, [(self.items[a], self.items[b]) for a, s in enumerate(succ) for b in s]
+        on = set(active)
+        core = sorted({self._index[key] for key in self.session.core() if key in self._index})
+        return False, [k for k in core if k in on]
+
+    def close(self) -> None:
+        self.session.close()
+
+    def __enter__(self):
+        return self
+
+    def __exit__(self, *exc):
+        self.close()
+
+
+def core_oracle(requirements: list[dict], all_triples_items: int = 30):
+    """The all-triples oracle for few items, the SAT engine's session for more (when present)."""
+    items = len({v for r in requirements for v in r["pair"]})
+    if items > all_triples_items:
+        try:
+            return SessionOracle(requirements)
+        except ImportError:
+            pass
+    return RequirementOracle(requirements)
+
+
 def minimal_core(oracle, start: Iterable[int]) -> list[int]:
     """Shrink an infeasible set of requirement indices to a minimal infeasible subset.
 

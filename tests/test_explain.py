@@ -399,3 +399,33 @@ def test_problems_beyond_the_oracle_use_the_sat_engine_core(conflict):
         from satorder.explain import repaired_problem
 
         certify.check_order(repaired_problem(p, rep.drop), rep.succ)
+
+
+def test_long_odd_cycle_core_is_minimal_and_explained():
+    # C31 is not a comparability graph (Golumbic 1980, ch. 5): its core is the 31 pairs plus
+    # one unordered witness per forcing step; checked by witness orders and the replay
+    p = Problem.from_networkx(nx.cycle_graph(31))
+    e = explain(p)
+    assert len(e.obstruction) == 31
+    assert sorted(r["kind"] for r in e.core) == ["comparable"] * 31 + ["incomparable"] * 31
+    check_derivation(e.core_json(), e.derivation_json())
+
+
+def test_minimality_witness_checker_rejects_bad_witnesses():
+    from satorder.core_check import check_minimality_witnesses
+
+    # kiln<loom<quay fixed with kiln, quay unordered
+    p = Problem.from_lists(comparable=[("kiln", "loom"), ("loom", "quay")],
+                           incomparable=[("kiln", "quay")],
+                           fixed=[("kiln", "loom"), ("loom", "quay")])
+    core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 2)},
+            {"kind": "incomparable", "pair": (0, 2)}]
+    good = {0: [(1, 2)], 1: [(0, 1)], 2: [(0, 1), (1, 2), (0, 2)]}
+    check_minimality_witnesses(p, core, good)
+    with pytest.raises(CertificateError):  # not transitive
+        check_minimality_witnesses(p, core, {**good, 2: [(0, 1), (1, 2)]})
+    with pytest.raises(CertificateError):  # misses member 2 (orders kiln, quay)
+        check_minimality_witnesses(p, core, {**good, 0: [(1, 2), (0, 2)]})
+    with pytest.raises(CertificateError):  # a requirement the problem does not have
+        check_minimality_witnesses(p, core + [{"kind": "forbidden", "pair": (2, 0)}],
+                                   {**good, 3: [(0, 1)]})
