@@ -450,6 +450,8 @@ def planted(items: int, seed: int = 0, kind: str = "hole", length: int = 5,
             block_size: int = 100) -> Instance:
     """A comparability graph on ``items - length`` items plus an induced odd hole or antihole
     on ``length`` new items, joined to the rest by ``joins`` random edges (never chords)."""
+    if items <= length:
+        raise ValueError(f"needs more than {length} items (the obstruction has {length})")
     rng = random.Random(seed)
     nb = items - length
     us, vs = _base(base, nb, rng, degree, block_size)
@@ -556,6 +558,8 @@ def open_pairs(items: int, seed: int = 0, degree: float = 3.0, keep: float = 0.5
     """A random order with each comparable pair named with probability ``keep`` and each
     unordered pair named with probability ``keep``; all other pairs open.  With ``conflict``,
     five new items carry a fully specified 5-cycle (edges comparable, chords unordered)."""
+    if conflict and items < 6:
+        raise ValueError("a planted 5-cycle needs at least 6 items")
     rng = random.Random(seed)
     nb = items - 5 if conflict else items
     cu, cv = _order_pairs(nb, degree, rng)

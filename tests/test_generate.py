@@ -254,5 +254,8 @@ def test_cli_make_suite_family_and_errors(tmp_path, capsys):
                  "--format", "edges"]) == 2
     assert main(["make-suite", str(out), "--family", "order", "--items", "10",
                  "--set", "nonsense=1"]) == 2
+    assert main(["make-suite", str(out), "--family", "planted-hole", "--items", "5"]) == 2
+    assert main(["make-suite", str(out), "--family", "side-constraints", "--items", "10",
+                 "--set", "conflict=sideways"]) == 2
     assert main(["make-suite", "--list"]) == 0
     assert "series-parallel" in capsys.readouterr().out
