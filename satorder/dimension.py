@@ -20,7 +20,8 @@ intersection is P (Dushnik & Miller 1941).  How it is found here:
    chain names a sub-order of dimension ≥ 3, which is then shrunk item by item to a small one.
 3. **SAT for dimension ≥ 3** on parts of at most ``sat_limit`` items: ``k`` linear orders, each
    extending P (transitivity clauses over item triples), that together reverse every
-   incomparable pair; ``k = 3, 4, …`` until satisfiable.
+   incomparable pair; ``k = 3, 4, …`` until satisfiable.  Parts of up to ``3 · sat_limit``
+   items get one short try (5 s) for three orders, which settles dimension 3 when it succeeds.
 4. **Large parts** (incomparability graph too large to build): first a quick search for a small
    sub-order of dimension ≥ 3 among random connected pieces; if none, *ordered vertex
    partitioning* (McConnell & Spinrad 2000) on the incomparability graph, driven by the
@@ -602,6 +603,12 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> _Part:
     wit = shrink_witness(succ, [items[i] for i in wit])
     upper = min(_part_width(succ, items), _hiraguchi(k))
     if k > sat_limit:
+        if k <= 3 * sat_limit:
+            # the witness proves ≥ 3; three orders found within a short budget settle it
+            left = 5.0 if deadline is None else min(5.0, deadline - time.perf_counter())
+            r = sat_realizer(sub, 3, max(0.1, left)) if left > 0 else "unknown"
+            if isinstance(r, list):
+                return _Part(3, 3, [[items[i] for i in lin] for lin in r], wit, 3)
         notes.append(f"a part of {k} items has dimension ≥ 3 and more than {sat_limit} items "
                      "(the SAT limit); dimension bounded")
         return _Part(3, max(3, upper), None, wit, 3)

@@ -174,9 +174,15 @@ def test_bounded_beyond_reach(monkeypatch):
 
 def test_sat_limit_gives_bounds():
     succ = standard_example(4)
-    d = dimension(succ, sat_limit=6)  # 8 items > 6: no SAT search
+    d = dimension(succ, sat_limit=6)  # 8 items > 6: one try for 3 orders only, which fails
     assert d.status == "bounded" and (d.lower, d.upper) == (3, 4)
     check_dimension(succ, d)
+    succ = standard_example(3)
+    d = dimension(succ, sat_limit=4)  # the one try for 3 orders settles S_3
+    assert d.status == "exact" and d.value == 3
+    check_dimension(succ, d)
+    d = dimension(standard_example(5), sat_limit=3)  # 10 items > 3 · 3: bounds only
+    assert d.status == "bounded" and (d.lower, d.upper) == (3, 5)
 
 
 def test_sat_realizer_refuses_too_few_orders():
