@@ -58,12 +58,30 @@ class Answer:
         g.add_edges_from((a, b) for a, b in self.named_pairs())
         return g
 
-    def to_json(self) -> dict[str, Any]:
+    def to_json_text(self) -> str:
+        """The JSON document as one line of text; the (possibly huge) ``order`` list is written
+        directly from the successor sets instead of through millions of small lists."""
+        import json
+
+        doc = self.to_json(include_order=False)
+        if self.succ is None:
+            return json.dumps(doc, separators=(",", ":")) + "\n"
+        q = [json.dumps(name) for name in self.problem.items]
+        parts = []
+        for a, s in enumerate(self.succ):
+            if s:
+                qa = "[" + q[a] + ","
+                parts.append(",".join([qa + q[b] + "]" for b in s]))
+        head = json.dumps({"status": doc.pop("status")}, separators=(",", ":"))[:-1]
+        rest = json.dumps(doc, separators=(",", ":"))[1:]
+        return head + ',"order":[' + ",".join(parts) + "]," + rest + "\n"
+
+    def to_json(self, include_order: bool = True) -> dict[str, Any]:
         """The machine-readable answer (fields fixed by the CLI contract, extras welcome)."""
         p = self.problem
         names = p.items
         doc: dict[str, Any] = {"status": self.status, "engine": self.engine}
-        if self.succ is not None:
+        if self.succ is not None and include_order:
             doc["order"] = self.named_pairs()
         if self.cost is not None:
             doc["cost"] = self.cost

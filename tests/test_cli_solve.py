@@ -156,3 +156,30 @@ def test_demo_runs():
     code, out, err = run("demo")
     assert code == 0, err
     assert "FEASIBLE" in out
+
+
+def test_fast_json_text_equals_the_plain_json_document():
+    import networkx as nx
+
+    from satorder import Problem, solve
+
+    g = nx.complement(nx.interval_graph([(0, 1), (0.5, 2), (3, 4), (1.5, 3.5), (5, 6)]))
+    nx.relabel_nodes(g, {v: f'it"{v}' for v in g}, copy=False)  # names that need escaping
+    ans = solve(Problem.from_networkx(g))
+    fast = json.loads(ans.to_json_text())
+    slow = ans.to_json()
+    assert {tuple(p) for p in fast.pop("order")} == {tuple(p) for p in slow.pop("order")}
+    fast["stats"].pop("verify_seconds", None)
+    slow["stats"].pop("verify_seconds", None)
+    assert fast == slow
+
+
+def test_check_order_rejects_non_transitive_and_out_of_range():
+    from satorder import CertificateError, Problem, certify
+
+    p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")])
+    with pytest.raises(CertificateError, match="transitive"):
+        certify.check_order(p, [{1}, {2}, set()])  # a<b<c without a<c
+    with pytest.raises(CertificateError, match="unknown item"):
+        certify.check_order(p, [{1, 2, 7}, {2}, set()])
+    certify.check_order(p, [{1, 2}, {2}, set()])

@@ -2,9 +2,11 @@
 
 from __future__ import annotations
 
+import sys
+
 from ..render import print_answer
 from ..solve import ENGINES, solve
-from .common import atomic_write, check_output_path, dumps, load, out, print_json
+from .common import atomic_write, check_output_path, load, out
 
 
 def add_parser(sub):
@@ -26,15 +28,16 @@ def run(args) -> int:
     check_output_path(args.out, args.file)
     problem = load(args.file)
     ans = solve(problem, engine=args.engine, solver=args.solver, time_limit=args.time_limit)
-    doc = ans.to_json() if (args.json or args.out) else None
+    text = ans.to_json_text() if (args.json or args.out) else None
     if args.out:
-        atomic_write(args.out, dumps(doc))
+        atomic_write(args.out, text)
     if args.draw and ans.feasible:
         from .measure import write_pictures
 
         write_pictures(args.draw, args.file, ans.succ, problem.items)
     if args.json:
-        print_json(doc)
+        sys.stdout.write(text)
+        sys.stdout.flush()
     else:
         if ans.status == "infeasible":  # one-screen summary: a minimal core of the requirements
             from ..explain import minimal_core_of
