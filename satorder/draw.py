@@ -28,6 +28,7 @@ FONT = "DejaVu Sans, Verdana, Arial, sans-serif"
 CHAR_W = 7.0  # approximate advance of one character at 12 px
 MAX_LABEL = 18
 ROW_ITEMS = 28  # items per row before a level wraps
+MAX_WIDTH = 2000  # picture width (px) that a level wraps to stay within
 
 
 def _label(name: str) -> str:
@@ -83,7 +84,8 @@ def hasse_svg(succ: list[set[int]], names: list[str], chain=None, antichain=None
     box_w = max([CHAR_W * len(s) + 14 for s in labels] + [30])
     col = box_w + 14
     box_h, sub_gap, level_gap = 22, 34, 64
-    per_row = max(1, min(ROW_ITEMS, max((len(r) for r in rows), default=1)))
+    per_row = max(1, min(ROW_ITEMS, int((MAX_WIDTH - 120) // col),
+                         max((len(r) for r in rows), default=1)))
     width = max(520, per_row * col + 120)
     left = 90
     # vertical layout: level 0 at the bottom
@@ -114,6 +116,10 @@ def hasse_svg(succ: list[set[int]], names: list[str], chain=None, antichain=None
                '<tspan fill="#1c5fb8" font-weight="bold">blue outline</tspan>: a largest '
                'antichain</text>')
     for k, y in enumerate(level_y):
+        top = y - (bands[k] - 1) * sub_gap - box_h / 2 - 8
+        if k % 2 == 1:  # shade every other level so wrapped rows read as one level
+            out.append(f'<rect x="0" y="{top:.1f}" width="{width:.0f}" '
+                       f'height="{y + box_h / 2 + 8 - top:.1f}" fill="#f3f6fa"/>')
         out.append(f'<text x="12" y="{y + 4:.0f}" font-size="11" fill="#888">level {k + 1}</text>')
     for a, b in cover:
         (x1, y1), (x2, y2) = pos[a], pos[b]
