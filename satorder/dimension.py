@@ -6,10 +6,10 @@ intersection is P (Dushnik & Miller 1941).  How it is found here:
 1. **Split by series and parallel modules.**  Items are split into the connected components of
    the comparability graph (a *disjoint sum*) and, inside a connected part, into the components
    of its complement (a *linear sum*: every item of one part lies below every item of the next).
-   The dimension of a lexicographic sum is the largest dimension among the quotient and the parts
-   (Hiraguchi 1955; from memory), so a disjoint sum of at least two parts has dimension
-   ``max(2, parts)`` and a linear sum ``max(parts)``; realizers of the parts are concatenated
-   (for a disjoint sum, the second order lists the parts in reverse).  Components of the
+   A linear sum has dimension ``max(parts)`` and a disjoint sum of at least two parts
+   ``max(2, parts)``: each part is a sub-order (so no less), and realizers of the parts, padded
+   to equal length, concatenate into one of the whole — for a disjoint sum the second order
+   lists the parts in reverse, which separates items of different parts.  Components of the
    complement are found without building it (each step scans only the items still unvisited).
 2. **Dimension ≤ 2 test on each remaining part** (connected, co-connected).  P has dimension
    ≤ 2 exactly when its incomparability graph is a comparability graph (Dushnik & Miller 1941);

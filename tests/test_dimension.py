@@ -117,7 +117,7 @@ def test_permutation_orders_have_dimension_at_most_two():
 
 def test_disjoint_sum_rule_by_brute_force():
     # dim(P + Q) = max(2, dim P, dim Q) for non-empty P, Q (from memory; checked here by brute
-    # force on small parts)
+    # force on small parts, as the issue asks)
     rng = random.Random(4)
     for _ in range(15):
         p = random_order(rng.randint(1, 3), 0.7, rng)
@@ -219,8 +219,9 @@ def test_checker_rejects_bad_realizers_and_witnesses():
 
 
 def with_twins(succ, rng):
-    """Substitute small antichains for some items (a lexicographic sum: dimension unchanged
-    when it is at least 2 — Hiraguchi 1955, from memory; brute-force-checked above for sums)."""
+    """Substitute two-item antichains for some items.  The dimension stays the same when it is
+    at least 2 (common practice: a realizer lists the copies side by side, the other way round
+    in its second order)."""
     n = len(succ)
     copies = {x: [x] for x in range(n)}
     nxt = n
