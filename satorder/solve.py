@@ -61,6 +61,10 @@ def verify(answer: Answer) -> Answer:
     t0 = time.perf_counter()
     if answer.status == FEASIBLE:
         certify.check_order(answer.problem, answer.succ)
+        if answer.cost is not None:
+            from .certify_prefer import check_cost
+
+            check_cost(answer.problem, answer.succ, answer.cost, answer.unmet)
     elif answer.status == INFEASIBLE and answer.chain is not None:
         certify.check_forcing_chain(answer.problem, answer.chain)
     elif answer.status == INFEASIBLE and answer.core is not None:
@@ -91,6 +95,11 @@ def solve(
         raise ValueError(f"unknown engine {engine!r}; choose one of {', '.join(ENGINES)}")
     if engine == "auto":
         engine = "forcing" if problem.is_plain else "sat"
+    if problem.prefer and engine == "sat":  # weighted preferences: MaxSAT (satorder.prefer)
+        from .prefer import solve_preferences
+
+        ans = solve_preferences(problem, solver=solver, time_limit=time_limit)
+        return verify(ans) if verify_answer else ans
     if engine == "forcing":
         ans = solve_forcing(problem)
     elif engine == "sat":
