@@ -96,15 +96,11 @@ def test_wrong_answers_fail_their_check():
     assert lie["status"] == "infeasible" and lie["verified"] is False
 
 
-def test_fresh_interpreter_path_gives_the_same_row():
-    # the path Dask workers take (daemonic processes may not fork workers of their own)
-    task = _task(os.path.join(SMALL, PLAIN[4]), "forcing")
-    a = bench._run_subprocess(task)
-    b = bench.run_isolated(task)
-    assert a["status"] == b["status"] == "infeasible" and a["verified"] and b["verified"]
-    assert set(a) == set(b)
+def test_fresh_interpreter_path_reports_crashes_too():
+    # the path Dask workers take (daemonic processes may not fork workers of their own); its
+    # ordinary rows are compared with local ones in the cluster test below
     t = bench._run_subprocess(_task(os.path.join(SMALL, PLAIN[0]), "bench_plugins:segfault"))
-    assert t["status"] == "crash"
+    assert t["status"] == "crash" and "SIGSEGV" in t["error"]
 
 
 # --------------------------------------------------------------------------- rows and checks
@@ -187,7 +183,7 @@ def test_cli_runs_resumes_and_plots(tmp_path, capsys):
     table = capsys.readouterr().out
     assert "forcing" in table and "solved" in table
     before = out.read_text()
-    assert main(args) == 0  # nothing left: no run repeated
+    assert main(args[:-2]) == 0  # nothing left: no run repeated (and no second plot)
     assert out.read_text() == before
 
 
@@ -206,13 +202,12 @@ def test_cli_exits_1_on_disagreement_and_2_on_bad_usage(tmp_path, capsys):
 def test_interrupt_then_resume_loses_and_repeats_nothing(tmp_path):
     files = ["000-complete-n3-s1.json", "001-complete-n4-s1.json", "002-complete-n5-s1.json",
              "003-complete-n6-s1.json", "004-bipartite-n6-s1.json", "005-bipartite-n6-s2.json",
-             "006-bipartite-n8-s1.json", "007-bipartite-n8-s2.json", "008-bipartite-n12-s1.json",
-             "009-bipartite-n12-s2.json"]
+             "006-bipartite-n8-s1.json", "007-bipartite-n8-s2.json"]
     d = _suite(tmp_path, files)
     out = tmp_path / "r.jsonl"
     cmd = [sys.executable, "-m", "satorder", "bench", str(d), "--backend",
            "bench_plugins:slow_forcing", "--jobs", "2", "--timeout", "60", "--out", str(out)]
-    env = {**os.environ, "SATORDER_TEST_DELAY": "1.0"}
+    env = {**os.environ, "SATORDER_TEST_DELAY": "0.8"}
     # its own session, so the signal goes to the runner and its workers as Ctrl-C would
     proc = subprocess.Popen(cmd, env=env, start_new_session=True, stdout=subprocess.PIPE,
                             stderr=subprocess.PIPE, text=True)

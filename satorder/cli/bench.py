@@ -98,7 +98,7 @@ def _report(args, rows, backends) -> int:
     table = Table(title=f"{len({r['instance'] for r in rows})} instances, "
                         f"timeout {args.timeout:g} s")
     for col in ("back end", "runs", "solved", "timeouts", "failed", "skipped",
-                "median s (solved)", "total s"):
+                "median s", "total s"):
         table.add_column(col, justify="left" if col == "back end" else "right",
                          no_wrap=col == "back end")
     for b in backends:
@@ -109,6 +109,8 @@ def _report(args, rows, backends) -> int:
                       str(s["failed"]), str(s["skipped"]), _fmt(s["median_seconds"]),
                       _fmt(s["total_seconds"]))
     out.print(table)
+    out.print("median over solved runs; total over all runs, a timeout counting its full limit",
+              style="dim")
     failed = [r for r in rows if r.get("status") in bench.FAILED]
     for r in failed[:10]:
         err.print(f"{r['instance']} {r['backend']}: {r['status']}: {r.get('error', '')}",
