@@ -634,6 +634,24 @@ FAMILIES = {
 }
 
 
+ABOUT = {
+    "order": "random graph order (degree: sparse 1-2, dense 8+); feasible",
+    "permutation": "inversion graph of a random (or banded: width) permutation; feasible",
+    "bipartite": "random bipartite graph (degree or pairs); feasible, 2^c answers",
+    "interval-complement": "complement of a random interval graph (length); feasible",
+    "series-parallel": "random series-parallel order (max_children); feasible, count known",
+    "complete": "K_n; feasible, n! answers",
+    "gnp": "G(n, c/n) around the orientability threshold (c); status unknown",
+    "blocks": "disjoint dense random orders (block_size, degree); feasible",
+    "planted-hole": "odd hole (length) planted in an order/bipartite/blocks base; infeasible",
+    "planted-antihole": "complement of C6 or C7 (length) planted likewise; infeasible",
+    "side-constraints": "fixed and forbidden arcs (fixed, forbidden); conflict=transitivity|"
+                        "cycle|forcing|any makes it infeasible",
+    "open-pairs": "only some pairs named (keep); conflict=true plants a 5-cycle",
+    "preferences": "weighted preferences (count); consistent=true: optimal cost 0",
+}
+
+
 def generate(family: str, items: int, seed: int = 0, **params) -> Instance:
     """Generate one instance of a named family (see the module docstring)."""
     if family not in FAMILIES:

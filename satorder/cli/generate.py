@@ -49,9 +49,8 @@ def run(args) -> int:
         table = Table(title="families")
         table.add_column("family")
         table.add_column("about")
-        for name, fn in sorted(gen.FAMILIES.items()):
-            doc = (fn.__doc__ or "planted obstruction on new items").strip().split("\n")[0]
-            table.add_row(name, doc)
+        for name in sorted(gen.FAMILIES):
+            table.add_row(name, gen.ABOUT[name])
         out.print(table)
         out.print("recipes: " + ", ".join(f"{k} ({len(v)} problems)"
                                           for k, v in gen.RECIPES.items()))
