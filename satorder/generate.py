@@ -774,7 +774,7 @@ RECIPES: dict[str, list[dict]] = {
     ),
     # random graphs around the density where orientability stops
     "threshold": [
-        spec for c in (0.25, 0.5, 0.75, 1.0, 1.5, 2.0, 3.0)
+        spec for c in (0.5, 0.75, 0.9, 1.0, 1.1, 1.2, 1.3, 1.5, 2.0)
         for spec in _specs("gnp", [500], [1, 2, 3, 4, 5], "edges", c=c)
     ],
 }
