@@ -147,15 +147,17 @@ class _Decomposer:
         """Split every part by the set ``touched`` (no duplicates); record new parts and the
         smaller half of each split as an obligation on ``queue``."""
         blk = self.blk
+        parts = self.parts
         groups: dict[int, list[int]] = {}
         for u in touched:
             b = blk[u]
+            if len(parts[b]) == 1:  # a single item cannot split
+                continue
             g = groups.get(b)
             if g is None:
                 groups[b] = [u]
             else:
                 g.append(u)
-        parts = self.parts
         for pid, g in groups.items():
             rest = parts[pid]
             if len(g) == len(rest):
