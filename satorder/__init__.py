@@ -8,7 +8,9 @@ why none exists) out.
 """
 
 from .answer import Answer
+from .count import count_answers
 from .errors import CertificateError, InputError
+from .modular import modular_decomposition
 from .problem import Problem
 from .readers import problem_from_dict, read_problem
 from .solve import solve
@@ -17,6 +19,8 @@ __all__ = [
     "Answer",
     "CertificateError",
     "InputError",
+    "count_answers",
+    "modular_decomposition",
     "Problem",
     "problem_from_dict",
     "read_problem",
