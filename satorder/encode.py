@@ -56,12 +56,14 @@ from __future__ import annotations
 
 import json
 from collections.abc import Iterable, Iterator
+from itertools import chain, islice
 
 from .problem import Problem
 
 Arc = tuple[int, int]
 Key = tuple[str, Arc]
 KINDS = ("comparable", "incomparable", "fixed", "forbidden")
+MATRIX_ITEMS = 3000  # up to this many items, violated triples are found by matrix product
 
 
 class Encoding:
@@ -81,8 +83,12 @@ class Encoding:
         self._pair: dict[int, tuple[int, int]] = {}  # key a*n+b (a<b) → (lit a<b, lit b<a)
         self.selector_of: dict[Key, int] = {}
         self.requirement_of: dict[int, Key] = {}
-        self.unsat_reason: list[Key] | None = None  # set when the encoding is trivially false
+        # requirements that cannot hold together, when collapsing finds an implication class
+        # holding an arc and its reverse (the encoding then has an empty clause)
+        self.unsat_reason: list[Key] | None = None
         self.num_classes = 0
+        # preferred phases, in creation order: comparable pairs upwards by id, others unordered
+        self.phase_hints: list[int] = []
         n = self.n
         self._forbid: dict[int, list[Arc]] = {}
         for a, b in problem.forbidden:
@@ -160,10 +166,12 @@ class Encoding:
         if comparable and not self.selectors:
             up = self.new_var()
             lits = (up, -up)
+            self.phase_hints.append(up)
         else:
             up, down = self.new_var(), self.new_var()
             lits = (up, down)
             self.hard.append([-up, -down])
+            self.phase_hints += [up, -down] if comparable else [-up, -down]
             if comparable:
                 self.hard.append([-self.selector("comparable", (a, b)), up, down])
             elif unordered:
@@ -185,77 +193,46 @@ class Encoding:
     # ------------------------------------------------------------------ implication classes
     def _collapse_classes(self) -> None:
         """One variable per implication class of comparable pairs (Γ through pairs that must
-        stay unordered), by union-find with parity over the comparable pairs."""
+        stay unordered): connected components of the graph whose nodes are the two directions
+        of each comparable pair and whose links are single Γ steps."""
+        import numpy as np
+        from scipy.sparse import coo_matrix
+        from scipy.sparse.csgraph import connected_components
+
         p = self.problem
         n = self.n
-        adj = p.adj
         edges = list(p.comparable_pairs())
+        m = len(edges)
+        if m == 0:
+            return
         eid = {a * n + b: k for k, (a, b) in enumerate(edges)}
-        parent = list(range(len(edges)))
-        parity = [0] * len(edges)  # lit(edge) = lit(parent) xor parity (as "lo<hi" senses)
-        conflict: tuple[int, int, int] | None = None
-
-        def find(e: int) -> tuple[int, int]:
-            par = 0
-            path = []
-            while parent[e] != e:
-                path.append(e)
-                par ^= parity[e]
-                e = parent[e]
-            acc = par
-            for x in path:  # path compression: parity of x relative to the root
-                rel = acc
-                acc ^= parity[x]
-                parent[x] = e
-                parity[x] = rel
-            return e, par
-
-        def tie(e1: int, e2: int, flip: int) -> None:
-            nonlocal conflict
-            r1, p1 = find(e1)
-            r2, p2 = find(e2)
-            if r1 == r2:
-                if p1 ^ p2 != flip and conflict is None:
-                    conflict = (e1, e2, flip)
-                return
-            parent[r2] = r1
-            parity[r2] = p1 ^ p2 ^ flip
-
-        incomp = p.incomparable
-        for v in range(n):
-            nb = adj[v]
-            if len(nb) < 2:
-                continue
-            unvisited = set(nb)
-            while unvisited:
-                queue = [unvisited.pop()]
-                for y in queue:
-                    if incomp is None:
-                        found = unvisited - adj[y]
-                    else:
-                        found = unvisited & incomp[y]
-                    if not found:
-                        continue
-                    unvisited -= found
-                    queue.extend(found)
-                    ey = eid[v * n + y] if v < y else eid[y * n + v]
-                    vy = v < y
-                    for x in found:  # arcs v→y and v→x alike: same lo<hi sense iff v<y == v<x
-                        ex = eid[v * n + x] if v < x else eid[x * n + v]
-                        tie(ey, ex, int(vy != (v < x)))
-        var_of_root: dict[int, int] = {}
-        for k, (a, b) in enumerate(edges):
-            root, par = find(k)
-            var = var_of_root.get(root)
-            if var is None:
-                var = var_of_root[root] = self.new_var()
-            lit = -var if par else var
+        e1, e2, flip = _gamma_ties(p, eid)
+        src = np.asarray(e1, dtype=np.int64)
+        dst = np.asarray(e2, dtype=np.int64)
+        fl = np.asarray(flip, dtype=np.int64)
+        # node 2e: edge e as lo<hi; node 2e+1: hi<lo
+        rows = np.concatenate([2 * src, 2 * src + 1])
+        cols = np.concatenate([2 * dst + fl, 2 * dst + 1 - fl])
+        graph = coo_matrix((np.ones(len(rows), dtype=np.int8), (rows, cols)),
+                           shape=(2 * m, 2 * m)).tocsr()
+        _, comp = connected_components(graph, directed=False)
+        c0, c1 = comp[0::2], comp[1::2]
+        # one variable per class pair {c, reverse c}: numbered by the smaller component id
+        key = np.minimum(c0, c1)
+        uniq, var_idx = np.unique(key, return_inverse=True)
+        self.num_classes = len(uniq)
+        base = self.nv
+        self.nv += len(uniq)
+        lits = (var_idx + base + 1) * np.where(c0 <= c1, 1, -1)
+        self.phase_hints.extend(range(base + 1, self.nv + 1))
+        for (a, b), lit in zip(edges, lits.tolist()):
             self._pair[a * n + b] = (lit, -lit)
-            self._add_forbidden(a * n + b, (lit, -lit), a)
-        self.num_classes = len(var_of_root)
-        if conflict is not None:
+            if self._forbid:
+                self._add_forbidden(a * n + b, (lit, -lit), a)
+        bad = np.flatnonzero(c0 == c1)
+        if len(bad):
             self.hard.append([])
-            self.unsat_reason = [("comparable", edges[conflict[0]])]
+            self.unsat_reason = _conflict_core(graph, int(bad[0]), edges)
 
     # ------------------------------------------------------------------ transitivity
     def transitivity_clause(self, a: int, b: int, c: int) -> list[int] | None:
@@ -272,14 +249,40 @@ class Encoding:
                 return None
         return sorted(lits, key=abs)
 
-    def refine(self, triples: Iterable[tuple[int, int, int]]) -> int:
-        """Add the transitivity clause of each triple ``(a, b, c)``; returns how many."""
+    def refine(self, triples: Iterable[tuple[int, int, int]], active=None) -> int:
+        """Add the transitivity clause of each triple ``(a, b, c)``; returns how many.
+
+        With selectors, a triple whose closing pair {a, c} must stay unordered and has no
+        variable gets the short clause ``¬s_ac ∨ ¬(a<b) ∨ ¬(b<c)`` while that requirement is
+        active (``active(key)`` true, default always); once it is dropped the pair gets its
+        variables and the full clause.
+        """
+        n = self.n
+        pair = self._pair
+        hard = self.hard
+        p = self.problem
         count = 0
         for a, b, c in triples:
-            cl = self.transitivity_clause(a, b, c)
-            if cl is not None:
-                self.hard.append(cl)
-                count += 1
+            x, y = self.lt(a, b), self.lt(b, c)
+            if x is None or y is None:
+                continue
+            key = a * n + c if a < c else c * n + a
+            if key not in pair and c not in p.adj[a] and p.must_be_unordered(a, c):
+                if not self.selectors:
+                    hard.append([-x, -y] if x != y else [-x])
+                    count += 1
+                    continue
+                req = ("incomparable", (min(a, c), max(a, c)))
+                if active is None or active(req):
+                    hard.append([-self.selector(*req), -x, -y])
+                    count += 1
+                    continue
+            z = self.lt(a, c)
+            cl = list(dict.fromkeys((-x, -y) if z is None else (-x, -y, z)))
+            if any(-lit in cl for lit in cl):
+                continue  # tautology
+            hard.append(cl)
+            count += 1
         return count
 
     def orderable_neighbours(self) -> list[set[int]]:
@@ -329,22 +332,65 @@ class Encoding:
         for key, (up, down) in self._pair.items():
             yield key // n, key % n, up, down
 
+    def _pair_arrays(self):
+        """The pair table as numpy arrays (key, lit a<b, lit b<a), extended incrementally."""
+        import numpy as np
+
+        cache = self.__dict__.setdefault("_arrays", [0, [], [], []])
+        count = len(self._pair)
+        if cache[0] < count:
+            items = list(islice(self._pair.items(), cache[0], None))
+            cache[1].append(np.fromiter((k for k, _ in items), dtype=np.int64, count=len(items)))
+            cache[2].append(np.fromiter((u for _, (u, _) in items), dtype=np.int64,
+                                        count=len(items)))
+            cache[3].append(np.fromiter((d for _, (_, d) in items), dtype=np.int64,
+                                        count=len(items)))
+            for j in (1, 2, 3):
+                cache[j] = [np.concatenate(cache[j])]
+            cache[0] = count
+        if not cache[1]:
+            empty = np.zeros(0, dtype=np.int64)
+            return empty, empty, empty
+        return cache[1][0], cache[2][0], cache[3][0]
+
     def decode(self, model: Iterable[int]) -> list[set[int]]:
-        """Successor sets of the relation a model sets: ``b in succ[a]`` iff ``a<b`` is true."""
-        true = set(lit for lit in model if lit > 0)
-        succ: list[set[int]] = [set() for _ in range(self.n)]
+        """Successor sets of the relation a model sets: ``b in succ[a]`` iff ``a<b`` is true.
+
+        Variables missing from the model count as false."""
+        import numpy as np
+
         n = self.n
-        for key, (up, down) in self._pair.items():
-            if (up in true) if up > 0 else (-up not in true):
-                succ[key // n].add(key % n)
-            elif (down in true) if down > 0 else (-down not in true):
-                succ[key % n].add(key // n)
-        return succ
+        keys, ups, downs = self._pair_arrays()
+        m = np.asarray(list(model), dtype=np.int64)
+        val = np.zeros(self.nv + 2, dtype=bool)
+        pos = m[(m > 0) & (m <= self.nv)]
+        val[pos] = True
+
+        def truth(lits):
+            t = val[np.abs(lits)]
+            return np.where(lits > 0, t, ~t)
+
+        t_up, t_down = truth(ups), truth(downs)
+        lo, hi = keys // n, keys % n
+        tails = np.concatenate([lo[t_up], hi[t_down]])
+        heads = np.concatenate([hi[t_up], lo[t_down]])
+        order = np.argsort(tails, kind="stable")
+        heads_l = heads[order].tolist()
+        ends = np.cumsum(np.bincount(tails, minlength=n)).tolist()
+        starts = [0] + ends[:-1]
+        return [set(heads_l[s:e]) for s, e in zip(starts, ends)]
 
     @staticmethod
     def violations(succ: list[set[int]], limit: int | None = None) -> list[tuple[int, int, int]]:
         """Triples ``(a, b, c)`` with ``a<b``, ``b<c`` related but not ``a<c``: one witness ``b``
-        per missing pair ``(a, c)``, at most ``limit`` triples."""
+        per missing pair ``(a, c)``, at most ``limit`` triples.
+
+        Uses a boolean matrix product (R·R against R) up to a few thousand items, successor-set
+        differences beyond."""
+        n = len(succ)
+        arcs = sum(len(s) for s in succ)
+        if 0 < n <= MATRIX_ITEMS and arcs > 4 * n:
+            return _violations_matrix(succ, limit)
         out: list[tuple[int, int, int]] = []
         for a, sa in enumerate(succ):
             if not sa:
@@ -390,6 +436,85 @@ class Encoding:
         lines.append(f"p cnf {self.nv} {len(clauses)}")
         lines += [" ".join(map(str, cl)) + " 0" for cl in clauses]
         return "\n".join(lines) + "\n"
+
+
+def _violations_matrix(succ: list[set[int]], limit: int | None):
+    import numpy as np
+
+    n = len(succ)
+    lens = np.fromiter((len(x) for x in succ), dtype=np.int64, count=n)
+    tails = np.repeat(np.arange(n), lens)
+    heads = np.fromiter(chain.from_iterable(succ), dtype=np.int64, count=int(lens.sum()))
+    r = np.zeros((n, n), dtype=np.float32)
+    r[tails, heads] = 1.0
+    two = r @ r  # two[a, c] > 0: some b with a<b<c
+    miss = (two > 0.5) & (r < 0.5)
+    np.fill_diagonal(miss, False)
+    a_idx, c_idx = np.nonzero(miss)
+    if limit is not None:
+        a_idx, c_idx = a_idx[:limit], c_idx[:limit]
+    out: list[tuple[int, int, int]] = []
+    rb = r > 0.5
+    for s in range(0, len(a_idx), 4096):  # witness b: first item with a<b and b<c
+        aa, cc = a_idx[s:s + 4096], c_idx[s:s + 4096]
+        b_idx = np.argmax(rb[aa] & rb[:, cc].T, axis=1)
+        out.extend(zip(aa.tolist(), b_idx.tolist(), cc.tolist()))
+    return out
+
+
+def _gamma_ties(p: Problem, eid: dict[int, int]):
+    """Spanning Γ steps: around each item v, a spanning forest of the pairs of neighbours that
+    must stay unordered (Golumbic 1980, ch. 5).  Returns parallel lists (e1, e2, flip): arcs at
+    v of edges e1 and e2 are oriented alike; ``flip`` when that means opposite lo<hi senses."""
+    n = p.n
+    adj = p.adj
+    incomp = p.incomparable
+    e1: list[int] = []
+    e2: list[int] = []
+    flip: list[int] = []
+    for v in range(n):
+        nb = adj[v]
+        if len(nb) < 2:
+            continue
+        unvisited = set(nb)
+        while unvisited:
+            queue = [unvisited.pop()]
+            for y in queue:
+                found = unvisited - adj[y] if incomp is None else unvisited & incomp[y]
+                if not found:
+                    continue
+                unvisited -= found
+                queue.extend(found)
+                ey = eid[v * n + y] if v < y else eid[y * n + v]
+                vy = v < y
+                for x in found:
+                    e1.append(ey)
+                    e2.append(eid[v * n + x] if v < x else eid[x * n + v])
+                    flip.append(int(vy != (v < x)))
+    return e1, e2, flip
+
+
+def _conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:
+    """Requirements along a shortest chain of Γ steps from edge e's arc to its reverse: the
+    comparable pairs of the chain and the pairs that must stay unordered forcing each step."""
+    from scipy.sparse.csgraph import breadth_first_order
+
+    _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
+    path = [2 * e + 1]
+    while path[-1] != 2 * e:
+        path.append(int(pred[path[-1]]))
+
+    def arc(node: int) -> Arc:
+        a, b = edges[node // 2]
+        return (a, b) if node % 2 == 0 else (b, a)
+
+    core: list[Key] = []
+    for u, w in zip(path, path[1:]):
+        (a, b), (c, d) = arc(u), arc(w)
+        x, y = (b, d) if a == c else (a, c)
+        core.append(("comparable", (min(a, b), max(a, b))))
+        core.append(("incomparable", (min(x, y), max(x, y))))
+    return list(dict.fromkeys(core))
 
 
 def _q(name: str) -> str:

@@ -94,7 +94,7 @@ class SatSession:
         except NotImplementedError:
             self._interruptible = False
         self._phases = phases
-        self._phased_pairs = 0
+        self._phased = 0
         self.model: list[int] | None = None
         self._succ: list[set[int]] | None = None
         self._core: list[int] | None = None
@@ -124,26 +124,20 @@ class SatSession:
         new = self.enc.take_new()
         if new:
             self.solver.append_formula(new)
-        if self._phases and len(self.enc._pair) > self._phased_pairs:
+        if self._phases:
             self._set_phases()
         self.stats["variables"] = self.enc.nv
         self.stats["clauses"] = len(self.enc.hard)
 
     def _set_phases(self) -> None:
-        """Prefer leaving open pairs unordered and orienting comparable ones upwards by id
-        (a heuristic start that is acyclic; the solver changes it where it must)."""
-        phases = []
-        comp = self.problem.adj
-        for a, b, up, down in self.enc.pair_literals():
-            if up == -down:
-                phases.append(up)
-            elif b in comp[a]:
-                phases += [up, -down]
-            else:
-                phases += [-up, -down]
-        self._phased_pairs = len(self.enc._pair)
+        """Pass the encoding's new phase hints to the solver (a heuristic start that is
+        acyclic; the solver changes it where it must)."""
+        hints = self.enc.phase_hints[self._phased:]
+        self._phased = len(self.enc.phase_hints)
+        if not hints:
+            return
         try:
-            self.solver.set_phases(phases)
+            self.solver.set_phases(hints)
         except NotImplementedError:
             self._phases = False
 
@@ -165,6 +159,9 @@ class SatSession:
             end = time.monotonic() + max(0.0, time_limit)
             deadline = end if deadline is None else min(deadline, end)
         extra = list(assumptions)
+        if keep is not None:
+            keep = set(keep)
+        active = None if keep is None else keep.__contains__
         self.model = self._succ = self._core = None
         t0 = time.perf_counter()
         try:
@@ -188,7 +185,7 @@ class SatSession:
                     self._succ = succ
                     return True
                 self.stats["rounds"] += 1
-                self.enc.refine(bad)
+                self.enc.refine(bad, active)
         finally:
             self._sync()
             self.stats["solve_seconds"] = round(
@@ -308,6 +305,10 @@ def solve_sat(problem: Problem, solver: str | None = None,
         ans = Answer(problem, FEASIBLE, "sat", succ=succ, stats=stats)
     elif res is None:
         ans = Answer(problem, UNKNOWN, "sat", stats=stats)
+    elif s.enc.unsat_reason is not None:  # an implication class holds an arc and its reverse
+        stats["core"] = {"source": "implication class conflict"}
+        core = [{"kind": kind, "pair": pair} for kind, pair in s.enc.unsat_reason]
+        ans = Answer(problem, INFEASIBLE, "sat", core=core, stats=stats)
     else:
         core, core_stats = find_core(problem, solver=name, deadline=deadline)
         stats["core"] = core_stats
