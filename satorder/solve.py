@@ -11,14 +11,15 @@ import time
 
 from . import certify
 from .answer import FEASIBLE, INFEASIBLE, Answer
+from .errors import CertificateError, InputError
 from .forcing import transitive_orientation
 from .problem import Problem
 
 ENGINES = ("auto", "forcing", "sat", "both")
 
 
-class EngineDisagreement(RuntimeError):
-    """Two engines gave different verdicts on the same problem (a bug)."""
+class EngineDisagreement(CertificateError):
+    """Two engines gave different verdicts on the same problem (a bug; the CLI exits 1)."""
 
 
 def solve_forcing(problem: Problem) -> Answer:
@@ -101,24 +102,59 @@ def solve(
         ans = solve_preferences(problem, solver=solver, time_limit=time_limit)
         return verify(ans) if verify_answer else ans
     if engine == "forcing":
+        if not problem.is_plain:
+            raise InputError(
+                f"{problem.source}: the forcing engine answers plain problems only (comparable "
+                "pairs, all other pairs unordered); use --engine sat or auto"
+            )
         ans = solve_forcing(problem)
     elif engine == "sat":
         from .sat import solve_sat
 
         ans = solve_sat(problem, solver=solver, time_limit=time_limit)
     else:
-        from .sat import solve_sat
-
-        a = solve_forcing(problem)
-        b = solve_sat(problem, solver=solver, time_limit=time_limit)
-        if b.status != "unknown" and a.status != b.status:
-            raise EngineDisagreement(
-                f"forcing says {a.status}, SAT says {b.status} on {problem.source}"
-            )
-        if verify_answer:
-            verify(b)
-        a.stats["sat"] = {"status": b.status, **b.stats}
-        ans = a
+        ans = _both(problem, solver, time_limit, verify_answer)
     if verify_answer:
         verify(ans)
     return ans
+
+
+def _both(problem: Problem, solver, time_limit, verify_answer: bool) -> Answer:
+    """Run the forcing algorithm and the SAT engine and insist that they agree.
+
+    Plain problems: the verdicts must match.  With fixed or forbidden arcs (every unnamed pair
+    unordered) the forcing algorithm answers the comparable pairs alone: if they admit no order,
+    SAT must say infeasible; if its order happens to meet the arcs too, SAT must say feasible.
+    """
+    from .sat import solve_sat
+
+    if problem.incomparable is not None or problem.prefer:
+        raise InputError(
+            f"{problem.source}: --engine both needs a problem whose unnamed pairs stay unordered "
+            "and without preferences (the forcing algorithm cannot answer open pairs)"
+        )
+    base = problem if problem.is_plain else problem.with_requirements(fixed=[], forbidden=[])
+    a = solve_forcing(base)
+    b = solve_sat(problem, solver=solver, time_limit=time_limit)
+    if verify_answer:
+        verify(a)
+        verify(b)
+    if problem.is_plain:
+        expected = a.status
+    elif a.status == INFEASIBLE:
+        expected = INFEASIBLE
+    else:
+        try:
+            certify.check_order(problem, a.succ)
+            expected = FEASIBLE
+        except CertificateError:
+            expected = None  # forcing's orientation breaks an arc; another one may not
+    if b.status != "unknown" and expected is not None and b.status != expected:
+        raise EngineDisagreement(
+            f"forcing says {expected}, SAT says {b.status} on {problem.source}"
+        )
+    if problem.is_plain:
+        a.stats["sat"] = {"status": b.status, **b.stats}
+        return a
+    b.stats["forcing"] = {"status": a.status, "implies": expected, **a.stats}
+    return b

@@ -162,7 +162,8 @@ def test_interval_graph_complement_is_feasible():
 
 
 def test_plain_problem_with_side_constraint_matches_forcing_plus_brute_force():
-    # the forcing algorithm's verdict plus one fixed arc: SAT and brute force must agree
+    # the forcing algorithm's verdict plus fixed/forbidden arcs: engine "both" cross-checks
+    # SAT against forcing (raising on a contradiction), and brute force settles the verdict
     rnd = random.Random(11)
     for _ in range(150):
         n = rnd.randint(3, 5)
@@ -170,8 +171,19 @@ def test_plain_problem_with_side_constraint_matches_forcing_plus_brute_force():
         if not g.number_of_edges():
             continue
         a, b = rnd.choice(list(g.edges()))
-        p = Problem.from_networkx(g).with_requirements(fixed=[(a, b)])
-        _agree(p, brute_force_feasible(p))
+        c, d = rnd.sample(range(n), 2)
+        p = Problem.from_networkx(g).with_requirements(
+            fixed=[(a, b)], forbidden=[(c, d)] if (c, d) != (a, b) else [])
+        ans = solve(p, engine="both")
+        assert ans.verified and ans.feasible == brute_force_feasible(p)
+
+
+def test_engine_choice_errors_are_input_errors():
+    open_pairs = Problem.from_lists(comparable=[("a", "b")], incomparable=[("b", "c")])
+    with pytest.raises(InputError, match="forcing engine"):
+        solve(open_pairs, engine="forcing")
+    with pytest.raises(InputError, match="engine both"):
+        solve(open_pairs, engine="both")
 
 
 # ---------------------------------------------------------------------- side constraints
