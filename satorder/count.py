@@ -148,16 +148,15 @@ def _count_by_decomposition(problem: Problem) -> CountResult:
         return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
     if problem.n == 0:
         return CountResult(problem, 1, True, DECOMPOSITION, stats=stats)
-    orientation = transitive_orientation(adj)
+    if not transitive_orientation(adj).orientable:
+        stats["comparability_graph"] = False
+        return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
     tree = modular_decomposition(adj)
     kinds = {SERIES: 0, PARALLEL: 0, PRIME: 0}
     for node in tree.nodes():
         if node.kind != LEAF:
             kinds[node.kind] += 1
     stats["nodes"] = kinds
-    if not orientation.orientable:
-        stats["comparability_graph"] = False
-        return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
     placed = _place_arcs(tree, arcs, problem.n)
     stats["constrained_nodes"] = len(placed)
     total = 1
