@@ -7,6 +7,36 @@ from rich.progress import Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
 from ..count import DECOMPOSITION, ENUMERATION, check_count, count_answers
 from .common import UsageError, atomic_write, check_output_path, dumps, err, load, out, print_json
 
+TREE_LIMIT = 60  # items up to which the decomposition tree is drawn on screen
+
+
+def decomposition_tree(problem):
+    """The modular decomposition as a rich Tree, each node with its share of the count."""
+    from math import factorial
+
+    from rich.tree import Tree
+
+    from ..modular import LEAF, PRIME, SERIES, modular_decomposition
+
+    names = problem.items
+
+    def label(node):
+        if node.kind == LEAF:
+            return names[node.item]
+        k = len(node.children)
+        share = {SERIES: f"{k}! = {factorial(k):,} orders of its parts",
+                 PRIME: "2 orientations"}.get(node.kind, "no choice")
+        return f"[bold]{node.kind}[/] ({len(node.items)} items, {share})"
+
+    root = modular_decomposition(problem.adj)
+    tree = Tree("modular decomposition (choices multiply, before any fixed arcs)")
+    stack = [(root, tree)]
+    while stack:
+        node, parent = stack.pop()
+        branch = parent.add(label(node))
+        stack.extend((c, branch) for c in reversed(node.children))
+    return tree
+
 
 def add_parser(sub):
     p = sub.add_parser("count", help="count the answers exactly (any size)", description=__doc__)
@@ -61,6 +91,8 @@ def run(args) -> int:
     if nodes:
         out.print(f"  decomposition: {nodes['series']} series, {nodes['prime']} prime, "
                   f"{nodes['parallel']} parallel nodes")
+        if problem.n <= TREE_LIMIT:
+            out.print(decomposition_tree(problem))
     for c in res.stats.get("checks", []):
         out.print(f"  [green]checked:[/] {c}")
     if problem.prefer:
