@@ -186,3 +186,17 @@ def test_solve_command_engines_and_solver_option(tmp_path, capsys):
         assert doc["status"] == "feasible" and doc["verified"] and len(doc["order"]) == 3
     assert main(["solve", src, "--engine", "sat", "--solver", "nosuch"]) == 2
     assert "unknown SAT solver" in capsys.readouterr().err
+
+
+def test_demo_shows_rules_open_pairs_and_a_core(capsys):
+    from satorder.cli.demo import load_demo_rules
+    from satorder.solve import solve
+
+    _, rules = load_demo_rules()
+    assert rules.fixed and rules.forbidden and rules.has_open_pairs
+    ans = solve(rules)
+    assert ans.engine == "sat" and ans.feasible and ans.verified
+    assert main(["demo"]) == 0
+    text = capsys.readouterr().out
+    assert "part 2" in text and "part 3" in text and "INFEASIBLE" in text
+    assert "broken" not in text

@@ -1,10 +1,19 @@
-"""``satorder demo``: solve the embedded demo problem (an invented festival set-up)."""
+"""``satorder demo``: solve the embedded demo problems (an invented harbour-festival set-up).
+
+Part 1 is the plain problem (pairs that must be sequenced, all others side by side), answered by
+the forcing algorithm.  Part 2 adds hard rules (fixed and forbidden arcs) and leaves a few pairs
+open, answered by the SAT engine.  Part 3 adds one rule too many and shows the core the SAT
+engine reports.  Every answer is checked independently before it is shown.
+"""
 
 from __future__ import annotations
 
 import json
 from importlib import resources
 
+from rich.table import Table
+
+from ..encode import direct_encoding
 from ..readers import problem_from_dict
 from ..render import print_answer
 from ..solve import solve
@@ -12,21 +21,82 @@ from .common import out
 
 
 def add_parser(sub):
-    return sub.add_parser("demo", help="solve a small embedded example and show the answer",
+    return sub.add_parser("demo", help="solve small embedded examples and show the answers",
                           description=__doc__)
 
 
-def load_demo():
-    text = resources.files("satorder").joinpath("data/demo.json").read_text(encoding="utf-8")
+def _load(name: str):
+    text = resources.files("satorder").joinpath(f"data/{name}").read_text(encoding="utf-8")
     doc = json.loads(text)
-    return doc, problem_from_dict(doc, source="demo.json")
+    return doc, problem_from_dict(doc, source=name)
+
+
+def load_demo():
+    """The plain demo problem: ``(json document, Problem)``."""
+    return _load("demo.json")
+
+
+def load_demo_rules():
+    """The demo with fixed and forbidden arcs and open pairs: ``(json document, Problem)``."""
+    return _load("demo-rules.json")
+
+
+def _rules_table(problem, ans) -> Table:
+    names = problem.items
+    succ = ans.succ
+    table = Table(title="Rules and open pairs in the answer")
+    table.add_column("kind")
+    table.add_column("pair")
+    table.add_column("in the answer")
+    for a, b in problem.fixed:
+        table.add_row("fixed", f"{names[a]} before {names[b]}",
+                      "[green]holds[/]" if b in succ[a] else "[red]broken[/]")
+    for a, b in problem.forbidden:
+        table.add_row("forbidden", f"{names[a]} before {names[b]}",
+                      "[green]avoided[/]" if b not in succ[a] else "[red]broken[/]")
+    fixed = {frozenset(arc) for arc in problem.fixed}
+    for a in range(problem.n):
+        for b in range(a + 1, problem.n):
+            if problem.is_open(a, b) and frozenset((a, b)) not in fixed:
+                if b in succ[a]:
+                    state = f"sequenced: {names[a]} first"
+                elif a in succ[b]:
+                    state = f"sequenced: {names[b]} first"
+                else:
+                    state = "side by side"
+                table.add_row("open", f"{names[a]}, {names[b]}", state)
+    return table
 
 
 def run(args) -> int:
     doc, problem = load_demo()
-    out.rule("[bold]satorder demo[/]")
+    out.rule("[bold]satorder demo, part 1: who must wait for whom[/]")
     out.print(doc.get("comment", ""))
     out.print(f"{problem.n} jobs, {problem.num_comparable} pairs that must be sequenced.\n")
-    ans = solve(problem)
+    print_answer(solve(problem), out)
+
+    doc, rules = load_demo_rules()
+    out.rule("[bold]part 2: hard rules and undecided pairs (SAT engine)[/]")
+    out.print(doc.get("comment", ""))
+    n = rules.n
+    opened = sum(1 for a in range(n) for b in range(a + 1, n) if rules.is_open(a, b))
+    out.print(f"{len(rules.fixed)} fixed arcs, {len(rules.forbidden)} forbidden arc, "
+              f"{opened} open pairs.\n")
+    ans = solve(rules)
     print_answer(ans, out)
+    if ans.feasible:
+        out.print(_rules_table(rules, ans))
+    base = direct_encoding(rules)
+    out.print(f"CNF: {ans.stats.get('variables')} variables and {ans.stats.get('clauses')} "
+              f"clauses, against {base.nv} variables and {base.num_clauses} clauses for the "
+              "textbook encoding over every item triple.\n")
+
+    out.rule("[bold]part 3: one rule too many[/]")
+    names = rules.index
+    extra = ("open-gates", "sweep-chimneys")
+    out.print(f"Suppose the crews also demand {extra[0]} before {extra[1]}.\n")
+    more = rules.with_requirements(fixed=rules.fixed + [(names[extra[0]], names[extra[1]])])
+    more.adj[names[extra[0]]].add(names[extra[1]])
+    more.adj[names[extra[1]]].add(names[extra[0]])
+    print_answer(solve(more), out)
     return 0
