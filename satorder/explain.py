@@ -547,12 +547,15 @@ def explain(
         if repairs:
             say("repairs")
             t = time.perf_counter()
-            if small:
+            plain_like = problem.incomparable is None and not problem.fixed \
+                and not problem.forbidden
+            if small and not plain_like:
                 found = correction_sets(whole_oracle, universe, repairs, time_limit=time_limit)
                 expl.repairs = [_verify_small_repair(problem, whole_oracle, universe, mcs)
                                 for mcs in found]
-            elif problem.incomparable is None and not problem.fixed and not problem.forbidden \
-                    or problem.n <= REPAIR_SAT_ITEMS:
+                if len(found) < repairs and time.perf_counter() - t >= time_limit:
+                    expl.notes.append("repairs: time limit reached")
+            elif plain_like or problem.n <= REPAIR_SAT_ITEMS:
                 expl.repairs, notes = _local_repairs(
                     problem, set(items) | set(expl.obstruction or ()), repairs,
                     time.monotonic() + time_limit, say)

@@ -36,11 +36,11 @@ core; larger universes plug in any object with the same ``check`` method.
 
 from __future__ import annotations
 
+import threading
 import time
 from collections.abc import Iterable
 from itertools import permutations
 
-from pysat.examples.hitman import Hitman
 from pysat.examples.rc2 import RC2
 from pysat.formula import WCNF
 from pysat.solvers import Solver
@@ -222,6 +222,24 @@ def minimal_core(oracle, start: Iterable[int]) -> list[int]:
             current = core  # contains every needed member: each lies in every core of `current`
 
 
+def _compute(rc2: RC2, deadline: float):
+    """``rc2.compute()`` stopped at ``deadline`` (a ``time.monotonic()`` value): the optimal
+    model, or ``None`` when the time ran out (or the hard clauses are unsatisfiable)."""
+    left = deadline - time.monotonic()
+    if left <= 0:
+        return None
+    timer = threading.Timer(left, rc2.interrupt)
+    timer.start()
+    try:
+        model = rc2.compute(expect_interrupt=True)
+    finally:
+        timer.cancel()
+    if rc2.interrupted:
+        rc2.clear_interrupt()
+        return None
+    return model
+
+
 def smallest_core(
     oracle, universe: Iterable[int], time_limit: float = 10.0
 ) -> tuple[list[int] | None, bool]:
@@ -232,10 +250,19 @@ def smallest_core(
     """
     universe = list(universe)
     deadline = time.monotonic() + time_limit
-    with Hitman(bootstrap_with=[], htype="sorted") as hitman:
+    # minimum hitting sets of the correction sets found so far, by MaxSAT: one variable per
+    # member of the universe, each unit soft clause "leave it out" of weight 1
+    hvar = {k: i + 1 for i, k in enumerate(universe)}
+    wcnf = WCNF()
+    for k in universe:
+        wcnf.append([-hvar[k]], weight=1)
+    with RC2(wcnf, solver=SOLVER) as hitter:
         while time.monotonic() < deadline:
-            candidate = hitman.get()
-            candidate = [] if candidate is None else sorted(candidate)
+            model = _compute(hitter, deadline)
+            if model is None:
+                return None, False
+            chosen = {v for v in model if v > 0}
+            candidate = sorted(k for k in universe if hvar[k] in chosen)
             ok, arcs = oracle.check(candidate)
             if not ok:
                 return candidate, True
@@ -253,7 +280,7 @@ def smallest_core(
             mcs = [k for k in universe if k not in mss]
             if not mcs:
                 raise ValueError("the requirements are feasible; there is no core")
-            hitman.hit(mcs)
+            hitter.add_clause([hvar[k] for k in mcs])
     return None, False
 
 
@@ -276,7 +303,7 @@ def correction_sets(oracle, universe: Iterable[int], limit: int, time_limit: flo
     deadline = time.monotonic() + time_limit
     with RC2(wcnf, solver=SOLVER) as rc2:
         while len(found) < limit and time.monotonic() < deadline:
-            model = rc2.compute()
+            model = _compute(rc2, deadline)
             if model is None:
                 break
             pos = set(v for v in model if v > 0)
