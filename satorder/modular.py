@@ -292,7 +292,7 @@ class _Decomposer:
                 continue
             if not val:
                 continue
-            x = self.rng.choice(sorted(val)) if len(val) < 64 else next(iter(val))
+            x = self.rng.choice(sorted(val))  # a random pivot: expected O(log) rounds
             below = down(x, val)
             above = up(x, val)
             layer = below & above
