@@ -42,6 +42,8 @@ import numpy as np
 from scipy.sparse import coo_matrix
 from scipy.sparse.csgraph import breadth_first_order, connected_components
 
+from . import _kernels
+
 Arc = tuple[int, int]
 
 
@@ -98,7 +100,7 @@ def _edge_arrays(adj: list[set[int]]):
     return key // n, key % n, key
 
 
-def _co_components(adj: list[set[int]]):
+def _co_components_py(adj: list[set[int]]):
     """For each item v, the connected components of the complement of ``G[N(v)]``.
 
     Breadth-first search in the complement, one frontier at a time: the items of ``N(v)`` not
@@ -131,6 +133,19 @@ def _co_components(adj: list[set[int]]):
     return vs, rs, xs
 
 
+def co_component_ties(adj: list[set[int]], compiled: bool | None = None):
+    """Arrays (v, r, x): for each item v and each co-component C of its neighbourhood with root
+    r, one row per other member x.  Uses the compiled kernel when numba is available."""
+    if compiled is None:
+        compiled = _kernels.HAVE_NUMBA
+    if compiled:
+        indptr, indices = _kernels.csr(adj)
+        return _kernels.co_component_ties(indptr, indices)
+    vs, rs, xs = _co_components_py(adj)
+    return (np.asarray(vs, dtype=np.int64), np.asarray(rs, dtype=np.int64),
+            np.asarray(xs, dtype=np.int64))
+
+
 def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     """Decide whether the graph ``adj`` is a comparability graph; orient it or certify why not.
 
@@ -142,11 +157,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     m = len(lo)
     if m == 0:
         return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
-    vs_l, rs_l, xs_l = _co_components(adj)
-    vs = np.asarray(vs_l, dtype=np.int64)
-    rs = np.asarray(rs_l, dtype=np.int64)
-    xs = np.asarray(xs_l, dtype=np.int64)
-    del vs_l, rs_l, xs_l
+    vs, rs, xs = co_component_ties(adj)
     e1 = np.searchsorted(keys, np.minimum(vs, rs) * n + np.maximum(vs, rs))
     e2 = np.searchsorted(keys, np.minimum(vs, xs) * n + np.maximum(vs, xs))
     fl = ((vs < rs) != (vs < xs)).astype(np.int64)

@@ -94,3 +94,23 @@ def test_a_wrong_chain_fails_its_check():
     broken = list(chain[:-1])  # drop the closing step: no longer ends in the reverse
     with pytest.raises(CertificateError):
         certify.check_forcing_chain(p, broken)
+
+
+def test_compiled_and_pure_python_co_components_agree():
+    # two independent implementations of the same step (numba kernel, set-based loop)
+    from satorder.forcing import co_component_ties
+
+    def partition(ties, n):
+        groups = {}
+        for v, r, x in zip(*(t.tolist() for t in ties)):
+            groups.setdefault((v, r), {r}).add(x)
+        return {(v, frozenset(g)) for (v, _), g in groups.items()}
+
+    rnd = random.Random(11)
+    for _ in range(60):
+        n = rnd.randint(2, 40)
+        g = nx.gnp_random_graph(n, rnd.uniform(0.05, 0.9), seed=rnd.randrange(1 << 30))
+        adj = Problem.from_networkx(g).adj
+        fast = partition(co_component_ties(adj, compiled=True), n)
+        slow = partition(co_component_ties(adj, compiled=False), n)
+        assert fast == slow
