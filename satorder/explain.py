@@ -16,8 +16,10 @@ change?":
 * **repairs** (optional) — minimal correction sets, each verified by exhibiting an order for the
   repaired problem that :func:`satorder.certify.check_order` accepts.
 
-Every core is re-checked by :func:`satorder.certify.check_core_infeasible` (an independent
-all-triples encoding and solver).
+Every core is checked by code that did not find it: its infeasibility by the replayed
+derivation (and, on up to 40 items, by :func:`satorder.certify.check_core_infeasible`, an
+all-triples encoding with another solver), its minimality by one witness order per member
+(:mod:`satorder.core_check`).
 
 >>> from satorder import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("c", "d"), ("d", "e"), ("e", "a")])
@@ -50,7 +52,7 @@ from .problem import Problem
 FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
 WHOLE_PROBLEM_ITEMS = 24  # up to this many items, smallest cores and repairs range over all
 ORACLE_ITEMS = 60  # up to this many items, the core is found by the all-triples oracle
-REPAIR_SAT_ITEMS = 3000  # repairs checked by re-solving list every unordered pair explicitly
+REPAIR_SAT_ITEMS = 3000  # side-constraint repairs re-solved (unordered pairs listed) up to this
 MINIMALITY_CHECK_ITEMS = 40  # all-triples re-solve of a core up to this many items
 SUMMARY_ITEMS = 200  # solve's summary shows a minimal core spanning up to this many items
 
