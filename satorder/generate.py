@@ -146,6 +146,12 @@ class Instance:
             "expected_status": self.expected_status,
             "expected_count": self.expected_count,
         }
+        c = self.expected_count
+        if c is not None and c.bit_length() > 3000:
+            # past ~900 digits an exact integer is unwieldy in JSON (and Python refuses to
+            # print integers over 4,300 digits by default): record its size instead
+            entry["expected_count"] = None
+            entry["expected_count_log10"] = round(_log10(c), 3)
         if self.expected_cost is not None:
             entry["expected_cost"] = self.expected_cost
         if self.cost_at_most is not None:
@@ -153,6 +159,11 @@ class Instance:
         if self.planted is not None:
             entry["planted"] = {"kind": self.planted_kind, "items": [nm[i] for i in self.planted]}
         return entry
+
+
+def _log10(x: int) -> float:
+    shift = max(0, x.bit_length() - 64)
+    return math.log10(x >> shift) + shift * math.log10(2)
 
 
 def _name_key(name: str):

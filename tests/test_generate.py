@@ -259,3 +259,15 @@ def test_cli_make_suite_family_and_errors(tmp_path, capsys):
                  "--set", "conflict=sideways"]) == 2
     assert main(["make-suite", "--list"]) == 0
     assert "series-parallel" in capsys.readouterr().out
+
+
+def test_huge_counts_are_recorded_by_size():
+    # log10(n!) = lgamma(n + 1) / ln 10 (handbook identity); 2000! has 5,736 digits
+    import math
+
+    entry = generate("complete", 2000, seed=1).manifest_entry("k.json")
+    assert entry["expected_count"] is None
+    assert abs(entry["expected_count_log10"] - math.lgamma(2001) / math.log(10)) < 1e-3
+    json.dumps(entry)  # writable, unlike a 5,736-digit integer under Python's default limit
+    assert generate("complete", 30, seed=1).manifest_entry("k.json")["expected_count"] == \
+        math.factorial(30)
