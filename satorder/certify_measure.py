@@ -323,13 +323,17 @@ def check_dimension_at_least(succ, items, bound, chain=None) -> None:
 
 
 def check_dimension(succ, dim) -> None:
-    """A :class:`satorder.dimension.Dimension`: realizer (upper bound) and witness (lower)."""
+    """A :class:`satorder.dimension.Dimension`: realizer (upper bound, when given) and witness
+    (lower bound).  An upper bound without a realizer rests on the theorems cited in
+    :mod:`satorder.dimension` and is not checked here."""
     n = len(succ)
     if dim.lower > dim.upper:
         raise CertificateError("dimension lower bound exceeds the upper bound")
-    if dim.status == "exact":
-        if len(dim.realizer) != dim.lower:
-            raise CertificateError("realizer size differs from the dimension")
+    if dim.status == "exact" and (dim.realizer is None or len(dim.realizer) != dim.lower):
+        raise CertificateError("an exact dimension needs a realizer of that many orders")
+    if dim.realizer is not None:
+        if len(dim.realizer) != dim.upper:
+            raise CertificateError("realizer size differs from the upper bound")
         check_realizer(succ, dim.realizer)
     if dim.lower >= 3:
         if dim.witness is None or (dim.witness_lower or 0) < dim.lower:

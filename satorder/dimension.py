@@ -29,11 +29,13 @@ intersection is P (Dushnik & Miller 1941).  How it is found here:
    resulting pair of linear orders is accepted only when it passes the realizer check.
    Unsplit classes that are modules are realized recursively and substituted.
 5. **Beyond reach** (a large part where neither succeeds, or a part of dimension ≥ 3 with too
-   many items for SAT): the answer is *bounded*.  Lower bound: 3 when a
-   sub-order of dimension ≥ 3 is found (by the chain above, or by sampling small connected
-   pieces of the part), else 2.  Upper bound: ``min(width, max(2, ⌊n/2⌋))`` — dimension is at
-   most the width (Dilworth 1950) and at most ``⌊n/2⌋`` for n ≥ 4 (Hiraguchi 1951), both from
-   memory.
+   many items for SAT): the answer is *bounded*.  Lower bound: 3 when a sub-order of
+   dimension ≥ 3 is found (by the chain above, or by sampling small connected pieces of the
+   part), else 2.  Upper bound: ``min(width, max(2, ⌊n/2⌋))`` — dimension is at most the width
+   (Dilworth 1950) and at most ``⌊n/2⌋`` for n ≥ 4 (Hiraguchi 1951), both from memory — or,
+   on parts of up to :data:`GREEDY_LIMIT` items, the size of a realizer built greedily (each
+   linear extension reverses what critical pairs it can), which is checked like any realizer
+   and gives the exact value when it meets the lower bound.
 
 >>> dimension([{3, 4}, {3, 5}, {4, 5}, set(), set(), set()]).value  # standard example S_3
 3
@@ -54,7 +56,9 @@ class Dimension:
     """Result of :func:`dimension`.
 
     ``status``: ``"exact"`` (``value`` is the dimension, ``realizer`` has ``value`` linear
-    orders, bottom first) or ``"bounded"`` (``value`` None; ``lower`` ≤ dimension ≤ ``upper``).
+    orders, bottom first) or ``"bounded"`` (``value`` None; ``lower`` ≤ dimension ≤ ``upper``;
+    ``realizer``, when present, has ``upper`` orders and proves the upper bound, otherwise the
+    upper bound comes from the theorems cited in the module doc).
     ``witness``: items of a sub-order whose dimension is at least ``witness_lower`` (the lower
     bound's certificate when that is ≥ 3), ``witness_chain`` a forcing chain in its
     incomparability graph (Γ steps, see :mod:`satorder.forcing`) when ``witness_lower`` is 3.
@@ -390,14 +394,15 @@ def _positions_from_conjugate(succ, pred, items, line):
     return [l1, l2]
 
 
-def _accept(succ, items, realizer) -> bool:
+def _accept(succ, items, realizer, sub=None) -> bool:
     """Does the candidate realize the part?  (The independent realizer check, used here only
     to decide whether to claim the answer.)"""
     from .certify_measure import check_realizer
     from .errors import CertificateError
 
     index = {x: i for i, x in enumerate(items)}
-    sub = _local(succ, items)
+    if sub is None:
+        sub = _local(succ, items)
     try:
         check_realizer(sub, [[index[x] for x in lin] for lin in realizer])
     except CertificateError:
@@ -471,6 +476,104 @@ def dimension_of_items(succ, items, sat_limit=40, deadline=None):
     if d.realizer is not None:
         d.realizer = [[items[i] for i in lin] for lin in d.realizer]
     return d
+
+
+# ---------------------------------------------------------------- upper bounds by construction
+
+#: largest part for which a realizer is built greedily to bound the dimension from above
+GREEDY_LIMIT = 500
+
+
+def critical_pairs(sub: list[set[int]]) -> list[tuple[int, int]]:
+    """Pairs ``(a, b)`` of incomparable items with everything below ``a`` below ``b`` and
+    everything above ``b`` above ``a``.  A family of linear extensions realizes the order as
+    soon as each of these pairs has ``b`` before ``a`` in one of them (Trotter, *Combinatorics
+    and Partially Ordered Sets*, 1992; from memory — the realizer check counts pairs anyway)."""
+    n = len(sub)
+    up = [0] * n
+    down = [0] * n
+    for a, s in enumerate(sub):
+        for b in s:
+            up[a] |= 1 << b
+            down[b] |= 1 << a
+    out = []
+    for a in range(n):
+        comp_a = up[a] | down[a] | (1 << a)
+        for b in range(n):
+            if a != b and not comp_a >> b & 1:
+                if down[a] & ~down[b] == 0 and up[b] & ~up[a] == 0:
+                    out.append((a, b))
+    return out
+
+
+def greedy_realizer(sub: list[set[int]], seed: int = 0, max_orders: int | None = None,
+                    deadline: float | None = None):
+    """Linear extensions built one at a time, each reversing as many not yet reversed critical
+    pairs as it can (pairs tried in random order, kept when they close no cycle; the order is
+    kept transitively closed as bitsets).  Returns the list of orders (local ids), or ``None``
+    when more than ``max_orders`` would be needed or the ``deadline`` passes."""
+    n = len(sub)
+    rng = random.Random(seed)
+    todo = critical_pairs(sub)
+    base_up = [0] * n
+    for a, s in enumerate(sub):
+        for b in s:
+            base_up[a] |= 1 << b
+    base_down = [0] * n
+    for a in range(n):
+        x = base_up[a]
+        while x:
+            low = x & -x
+            base_down[low.bit_length() - 1] |= 1 << a
+            x ^= low
+    realizer = []
+    while todo:
+        if max_orders is not None and len(realizer) >= max_orders:
+            return None
+        if deadline is not None and time.perf_counter() > deadline:
+            return None
+        up, down = list(base_up), list(base_down)
+        rng.shuffle(todo)
+        for a, b in todo:  # want b before a
+            if up[a] >> b & 1:
+                continue
+            new_up = up[a] | (1 << a)
+            new_down = down[b] | (1 << b)
+            x = new_down
+            while x:
+                low = x & -x
+                up[low.bit_length() - 1] |= new_up
+                x ^= low
+            x = new_up
+            while x:
+                low = x & -x
+                down[low.bit_length() - 1] |= new_down
+                x ^= low
+        # any linear extension of the grown order: sort by the number of items below
+        lin = sorted(range(n), key=lambda v: (bin(down[v]).count("1"), v))
+        pos = [0] * n
+        for i, v in enumerate(lin):
+            pos[v] = i
+        todo = [(a, b) for a, b in todo if not pos[b] < pos[a]]
+        realizer.append(lin)
+    return realizer or [sorted(range(n), key=lambda v: (len(sub[v]) * -1, v))]
+
+
+def _greedy_bound(sub, items, upper, tries=3, seconds=10.0):
+    """Best greedy realizer over a few seeds (within ``seconds``), in item ids, or ``None``."""
+    if len(items) > GREEDY_LIMIT:
+        return None
+    best = None
+    deadline = time.perf_counter() + seconds
+    for seed in range(tries):
+        r = greedy_realizer(sub, seed, max_orders=upper if best is None else len(best) - 1,
+                            deadline=deadline)
+        if r is not None and (best is None or len(r) < len(best)):
+            best = r
+    if best is None or not _accept(None, items, [[items[i] for i in lin] for lin in best],
+                                   sub=sub):
+        return None
+    return [[items[i] for i in lin] for lin in best]
 
 
 # ---------------------------------------------------------------- SAT for dimension ≥ 3
@@ -560,9 +663,23 @@ def sat_realizer(sub: list[set[int]], k: int, time_limit: float | None = None):
 class _Part:
     lower: int
     upper: int
-    realizer: list[list[int]] | None  # item ids, exact parts only
+    realizer: list[list[int]] | None  # item ids; ``upper`` orders when present
     witness: list[int] | None = None
     witness_lower: int | None = None
+
+
+def _bounded(succ, items, lower, upper, witness, witness_lower, sub=None,
+             deadline=None) -> _Part:
+    """A part known only within bounds: try a greedy realizer to lower the upper bound (it
+    settles the dimension when it has ``lower`` orders), for at most 10 s and never past the
+    ``deadline``."""
+    seconds = 10.0 if deadline is None else min(10.0, deadline - time.perf_counter())
+    if len(items) <= GREEDY_LIMIT and seconds > 0:
+        r = _greedy_bound(sub if sub is not None else _local(succ, items), items, upper,
+                          seconds=seconds)
+        if r is not None:
+            return _Part(lower, len(r), r, witness, witness_lower)
+    return _Part(lower, upper, None, witness, witness_lower)
 
 
 def _part_width(succ, items):
@@ -593,8 +710,8 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> _Part:
                      + ("" if found is None else " (a sub-order of dimension ≥ 3 was found)"))
         if found is not None:
             found = shrink_witness(succ, found)
-            return _Part(3, max(3, upper), None, found, 3)
-        return _Part(2, upper, None)
+            return _bounded(succ, items, 3, max(3, upper), found, 3, deadline=deadline)
+        return _bounded(succ, items, 2, upper, None, None, deadline=deadline)
     sub = _local(succ, items)
     real, chain = conjugate_realizer(sub)
     if real is not None:
@@ -609,16 +726,19 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> _Part:
             r = sat_realizer(sub, 3, max(0.1, left)) if left > 0 else "unknown"
             if isinstance(r, list):
                 return _Part(3, 3, [[items[i] for i in lin] for lin in r], wit, 3)
-        notes.append(f"a part of {k} items has dimension ≥ 3 and more than {sat_limit} items "
-                     "(the SAT limit); dimension bounded")
-        return _Part(3, max(3, upper), None, wit, 3)
+        part = _bounded(succ, items, 3, max(3, upper), wit, 3, sub, deadline)
+        if part.upper > 3:
+            notes.append(f"a part of {k} items has dimension ≥ 3 and more than {sat_limit} "
+                         "items (the SAT limit); dimension bounded")
+        return part
     for d in range(3, upper + 1):
         left = None if deadline is None else max(0.1, deadline - time.perf_counter())
         r = sat_realizer(sub, d, left)
         if r == "unknown":
             notes.append(f"SAT search for a realizer of size {d} ran out of time on a part of "
                          f"{k} items")
-            return _Part(d, upper, None, list(items) if d > 3 else wit, d)
+            return _bounded(succ, items, d, upper, list(items) if d > 3 else wit, d, sub,
+                            deadline)
         if r is not None:
             return _Part(d, d, [[items[i] for i in lin] for lin in r],
                          list(items) if d > 3 else wit, d)
@@ -673,7 +793,8 @@ def dimension(succ: list[set[int]], sat_limit: int = 40,
         for comp, child in zip(comps, node["children"]):
             stack.append(("split", comp, child))
     part: _Part = root["part"]
-    dim = Dimension("exact" if part.realizer is not None else "bounded", part.lower, part.upper,
+    exact = part.realizer is not None and len(part.realizer) == part.lower
+    dim = Dimension("exact" if exact else "bounded", part.lower, part.upper,
                     part.realizer, part.witness, part.witness_lower, notes=notes)
     if dim.witness is not None and dim.witness_lower == 3:
         dim.witness_chain = _witness_chain(succ, dim.witness)
@@ -688,21 +809,21 @@ def _pad(realizer, d):
 def _join(node):
     parts: list[_Part] = [c["part"] for c in node["children"]]
     parallel = node["kind"] == "parallel"
-    lower = max(p.lower for p in parts)
-    upper = max(p.upper for p in parts)
-    if parallel:
-        lower, upper = max(2, lower), max(2, upper)
+    least = 2 if parallel else 1
+    lower = max([least] + [p.lower for p in parts])
+    upper = max([least] + [p.upper for p in parts])
     wit = max((p for p in parts if p.witness is not None), key=lambda p: p.witness_lower,
               default=None)
     realizer = None
     if all(p.realizer is not None for p in parts):
-        d = lower
+        d = max([least] + [len(p.realizer) for p in parts])
         rs = [_pad(p.realizer, d) for p in parts]
         realizer = []
         for i in range(d):
             seq = rs[::-1] if (parallel and i == 1) else rs
             realizer.append([x for r in seq for x in r[i]])
-    node["part"] = _Part(lower, upper if realizer is None else lower, realizer,
+        upper = d
+    node["part"] = _Part(lower, upper, realizer,
                          None if wit is None else wit.witness,
                          None if wit is None else wit.witness_lower)
     node.pop("children")

@@ -260,3 +260,31 @@ def test_refinement_route_for_large_parts(monkeypatch):
         else:
             assert d.value is None or d.value >= 3
     assert found_two >= 3
+
+
+def test_greedy_realizer_bounds_from_above():
+    # every greedy family is a realizer (checked by counting pairs) and never beats the
+    # brute-force dimension; on S_n it needs at least n orders (Dushnik & Miller 1941)
+    rng = random.Random(17)
+    for _ in range(25):
+        n = rng.randint(2, 6)
+        succ = random_order(n, rng.random() * 0.7, rng)
+        r = dimension_module.greedy_realizer(succ, seed=rng.randrange(100))
+        check_realizer(succ, r)
+        assert len(r) >= brute_dimension(succ)
+    r = dimension_module.greedy_realizer(standard_example(4))
+    check_realizer(standard_example(4), r)
+    assert len(r) >= 4
+
+
+def test_bounded_part_gets_a_checked_realizer():
+    # a connected 60-item order of dimension >= 3 with the SAT limit set low: the answer is
+    # bounded or exact, and any realizer it carries has exactly 'upper' orders and is checked
+    rng = random.Random(6)
+    n = 60
+    arcs = [(rng.randrange(max(0, j - 12), j), j) for j in range(1, n) for _ in range(2)]
+    succ = transitive_closure(n, arcs)
+    d = dimension(succ, sat_limit=5)
+    assert d.lower >= 3 and d.realizer is not None and len(d.realizer) == d.upper
+    check_dimension(succ, d)
+    assert d.upper < min(30, dimension_module._part_width(succ, list(range(n))))

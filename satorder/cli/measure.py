@@ -113,7 +113,10 @@ def _show(names, m, weighted):
     if dim.status == "exact":
         t.add_row("dimension", str(dim.value), f"realizer of {len(dim.realizer)} linear orders")
     else:
-        t.add_row("dimension", f"{dim.lower}–{dim.upper}", "bounded: " + "; ".join(dim.notes))
+        how = (f"upper bound by a realizer of {len(dim.realizer)} linear orders"
+               if dim.realizer is not None else "upper bound from width and item count")
+        t.add_row("dimension", f"{dim.lower}–{dim.upper}",
+                  "bounded: " + "; ".join(dim.notes + [how]))
     if dim.witness is not None:
         t.add_row("", "", f"sub-order of dimension ≥ {dim.witness_lower}: "
                   + _names(names, dim.witness))
