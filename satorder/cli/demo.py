@@ -99,4 +99,28 @@ def run(args) -> int:
     more.adj[names[extra[0]]].add(names[extra[1]])
     more.adj[names[extra[1]]].add(names[extra[0]])
     print_answer(solve(more), out)
+    _part_counts_and_wishes(problem, rules)
     return 0
+
+
+def _part_counts_and_wishes(plain, rules) -> None:
+    """Part 4: how many answers each round allows, then weighted wishes (MaxSAT)."""
+    from ..count import check_count, count_answers
+
+    out.rule("[bold]part 4: how many orders, and the one that keeps the weightiest wishes[/]")
+    rounds = (("the plain set-up (part 1)", plain), ("the round with rules (part 2)", rules))
+    for label, p in rounds:
+        res = count_answers(p)
+        check_count(res)
+        how = "modular decomposition" if res.method == "modular-decomposition" else \
+            "listing them with the SAT engine"
+        out.print(f"{label} allows [bold]{res.count}[/] orders (counted by {how}, checked).")
+    doc, _ = _load("demo-rules.json")
+    wishes = json.loads(resources.files("satorder").joinpath("data/demo-wishes.json")
+                        .read_text(encoding="utf-8"))
+    wished = problem_from_dict({**doc, "prefer": wishes["prefer"]}, source="demo-wishes.json")
+    out.print("\n" + wishes["comment"])
+    for a, b, w in wished.prefer:
+        out.print(f"  wish: {wished.items[a]} before {wished.items[b]} (weight {w})")
+    out.print()
+    print_answer(solve(wished), out)
