@@ -253,12 +253,14 @@ def _prime_count(adj, node: ModuleNode, arcs) -> int:
 
 
 # ------------------------------------------------------------------------ independent check
-def check_count(result: CountResult, recount_up_to: int = 64, solver: str | None = None) -> None:
+def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int = 200,
+                solver: str | None = None) -> None:
     """Check a count with engines that did not produce it; sets ``result.verified``.
 
     The solving engine (forcing or SAT, its order certified by :mod:`satorder.certify`) must
     agree on whether any answer exists; and a decomposition count of at most ``recount_up_to``
-    is recounted by SAT enumeration, every enumerated order certified.  Raises
+    on a problem of at most ``recount_items`` items is recounted by SAT enumeration, every
+    enumerated order certified.  Raises
     :class:`~satorder.errors.CertificateError` on disagreement.
     """
     from .errors import CertificateError
@@ -276,7 +278,8 @@ def check_count(result: CountResult, recount_up_to: int = 64, solver: str | None
         if result.count != 0:
             raise CertificateError(f"count is {result.count} but the problem is infeasible")
         checks.append("the solver certified that no answer exists")
-    if result.method == DECOMPOSITION and 0 < result.count <= recount_up_to:
+    if result.method == DECOMPOSITION and 0 < result.count <= recount_up_to and \
+            problem.n <= recount_items:
         again = _count_by_enumeration(hard, result.count + 1, solver, None, None)
         if not again.exact or again.count != result.count:
             raise CertificateError(
