@@ -37,6 +37,7 @@ requirement, i.e. it is an order.  Only the steps the final contradiction depend
 
 from __future__ import annotations
 
+import time
 from collections import defaultdict, deque
 from dataclasses import dataclass
 
@@ -71,8 +72,9 @@ class DerivationBudgetExceeded(RuntimeError):
 
 
 class _Search:
-    def __init__(self, core: list[dict], budget: int):
+    def __init__(self, core: list[dict], budget: int, time_limit: float):
         self.budget = budget
+        self.deadline = time.monotonic() + time_limit
         self.fixed: dict[Arc, int] = {}
         self.forbidden: dict[Arc, int] = {}
         self.incomparable: dict[frozenset, int] = {}
@@ -100,7 +102,7 @@ class _Search:
     def propagate(self, facts: dict[Arc, _Node], fresh: list[_Node], scope) -> _Node | None:
         """Close ``facts`` under forcing and transitivity; return a contradiction node or None."""
         self.budget -= 1
-        if self.budget < 0:
+        if self.budget < 0 or time.monotonic() > self.deadline:
             raise DerivationBudgetExceeded("derivation search budget exhausted")
         out: dict[int, set[int]] = defaultdict(set)
         inn: dict[int, set[int]] = defaultdict(set)
@@ -264,14 +266,16 @@ def _linearise(root: _Node) -> list[Step]:
     return steps
 
 
-def build_derivation(core: list[dict], budget: int = 20000) -> list[Step] | None:
+def build_derivation(core: list[dict], budget: int = 20000,
+                     time_limit: float = 20.0) -> list[Step] | None:
     """A derivation of a contradiction from the requirements in ``core`` (``{"kind", "pair"}``
     with item ids), or ``None`` when the core admits an order.
 
     Raises :class:`DerivationBudgetExceeded` when the search needs more than ``budget``
-    propagation rounds (large cores with many independent case splits).
+    propagation rounds or ``time_limit`` seconds (large cores with many independent case
+    splits).
     """
-    root = _Search(core, budget).run()
+    root = _Search(core, budget, time_limit).run()
     if root is None:
         return None
     return _linearise(root)
