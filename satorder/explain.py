@@ -531,6 +531,15 @@ def explain(
             t = time.perf_counter()
             best, proved = smallest_core(whole_oracle, universe, time_limit=time_limit)
             info: dict[str, Any] = {"proved": proved, "scope": scope}
+            if best is None and small:  # fall back to the requirements on the core's items
+                local = requirements(problem, set(items) | set(expl.obstruction or ()))
+                with RequirementOracle(local) as oracle:
+                    best, proved = smallest_core(oracle, range(len(local)),
+                                                 time_limit=time_limit / 2)
+                universe_reqs = local
+                info = {"proved": proved, "scope": "requirements among the "
+                        f"{len(_items_of(local))} items of the core",
+                        "note": f"the whole-problem search gave up after {time_limit:g} s"}
             if best is not None:
                 found = [universe_reqs[k] for k in best]
                 info["size"] = len(found)
