@@ -79,6 +79,9 @@ class Encoding:
             raise ValueError("implication classes cannot be collapsed when selectors are on")
         self.nv = 0
         self.hard: list[list[int]] = []
+        # why each clause is there (index in ``hard`` → ("triple", (a, b, c)) | ("fixed", arc)
+        # | ("forbidden", arc) | ("axiom",)); clauses added by callers have no entry
+        self.origin: dict[int, tuple] = {}
         self._new_from = 0
         self._pair: dict[int, tuple[int, int]] = {}  # key a*n+b (a<b) → (lit a<b, lit b<a)
         self.selector_of: dict[Key, int] = {}
@@ -110,11 +113,15 @@ class Encoding:
             if self.selectors:
                 self.hard.append([-self.selector_of[("fixed", (a, b))], lit])
             else:
-                self.hard.append([lit])
+                self._add([lit], ("fixed", (a, b)))
         if not lazy:
             self.add_all_transitivity()
 
     # ------------------------------------------------------------------ variables
+    def _add(self, clause: list[int], origin: tuple) -> None:
+        self.origin[len(self.hard)] = origin
+        self.hard.append(clause)
+
     def new_var(self) -> int:
         """A fresh variable (for auxiliary use by callers, e.g. blocking or relaxation)."""
         self.nv += 1
@@ -170,7 +177,7 @@ class Encoding:
         else:
             up, down = self.new_var(), self.new_var()
             lits = (up, down)
-            self.hard.append([-up, -down])
+            self._add([-up, -down], ("axiom",))
             self.phase_hints += [up, -down] if comparable else [-up, -down]
             if comparable:
                 self.hard.append([-self.selector("comparable", (a, b)), up, down])
@@ -188,7 +195,7 @@ class Encoding:
             if self.selectors:
                 self.hard.append([-self.selector_of[("forbidden", (x, y))], -lit])
             else:
-                self.hard.append([-lit])
+                self._add([-lit], ("forbidden", (x, y)))
 
     # ------------------------------------------------------------------ implication classes
     def _collapse_classes(self) -> None:
@@ -216,6 +223,7 @@ class Encoding:
         graph = coo_matrix((np.ones(len(rows), dtype=np.int8), (rows, cols)),
                            shape=(2 * m, 2 * m)).tocsr()
         _, comp = connected_components(graph, directed=False)
+        self._ties = (graph, edges, eid)  # kept to explain refutations (requirements_behind)
         c0, c1 = comp[0::2], comp[1::2]
         # one variable per class pair {c, reverse c}: numbered by the smaller component id
         key = np.minimum(c0, c1)
@@ -233,6 +241,61 @@ class Encoding:
         if len(bad):
             self.hard.append([])
             self.unsat_reason = _conflict_core(graph, int(bad[0]), edges)
+
+    def requirements_behind(self, clause_ids: Iterable[int]) -> list[Key] | None:
+        """Requirements that imply the given clauses of a collapsed encoding (selectors off):
+        if those clauses are unsatisfiable, so are these requirements on their own.
+
+        A transitivity clause needs the pairs it names to be comparable (when they are) and its
+        missing closing pair to stay unordered; a unit needs its fixed or forbidden arc; and
+        arcs sharing one class variable need the Γ steps that tie them (comparable pairs and
+        the unordered pairs forcing each step, Golumbic 1980, ch. 5).  ``None`` when a clause
+        has no recorded origin (added by a caller).
+        """
+        p = self.problem
+        n = self.n
+        out: dict[Key, None] = {}
+        used: list[Arc] = []
+
+        def pair_req(a: int, b: int) -> None:
+            key = (min(a, b), max(a, b))
+            if b in p.adj[a]:
+                out[("comparable", key)] = None
+                used.append((a, b))
+            elif p.must_be_unordered(a, b):
+                out[("incomparable", key)] = None
+
+        for k in clause_ids:
+            origin = self.origin.get(k)
+            if origin is None:
+                return None
+            if origin[0] == "triple":
+                a, b, c = origin[1]
+                pair_req(a, b)
+                pair_req(b, c)
+                pair_req(a, c)
+            elif origin[0] in ("fixed", "forbidden"):
+                out[(origin[0], origin[1])] = None
+                pair_req(*origin[1])
+        if getattr(self, "_ties", None) is not None:
+            graph, edges, eid = self._ties
+            by_var: dict[int, list[int]] = {}
+            for a, b in used:
+                lit = self.lt(a, b)
+                e = eid[min(a, b) * n + max(a, b)]
+                node = 2 * e if a < b else 2 * e + 1
+                if lit < 0:
+                    node ^= 1  # the reverse arc carries the positive literal
+                by_var.setdefault(abs(lit), []).append(node)
+            for nodes in by_var.values():
+                targets = set(nodes[1:]) - {nodes[0]}
+                if targets:
+                    steps = _tie_paths(graph, nodes[0], targets, edges)
+                    if steps is None:
+                        return None
+                    for key in steps:
+                        out[key] = None
+        return list(out)
 
     # ------------------------------------------------------------------ transitivity
     def transitivity_clause(self, a: int, b: int, c: int) -> list[int] | None:
@@ -259,7 +322,6 @@ class Encoding:
         """
         n = self.n
         pair = self._pair
-        hard = self.hard
         p = self.problem
         count = 0
         for a, b, c in triples:
@@ -269,19 +331,19 @@ class Encoding:
             key = a * n + c if a < c else c * n + a
             if key not in pair and c not in p.adj[a] and p.must_be_unordered(a, c):
                 if not self.selectors:
-                    hard.append([-x, -y] if x != y else [-x])
+                    self._add([-x, -y] if x != y else [-x], ("triple", (a, b, c)))
                     count += 1
                     continue
                 req = ("incomparable", (min(a, c), max(a, c)))
                 if active is None or active(req):
-                    hard.append([-self.selector(*req), -x, -y])
+                    self.hard.append([-self.selector(*req), -x, -y])
                     count += 1
                     continue
             z = self.lt(a, c)
             cl = list(dict.fromkeys((-x, -y) if z is None else (-x, -y, z)))
             if any(-lit in cl for lit in cl):
                 continue  # tautology
-            hard.append(cl)
+            self._add(cl, ("triple", (a, b, c)))
             count += 1
         return count
 
@@ -315,7 +377,7 @@ class Encoding:
                         if t in seen:
                             continue
                         seen.add(t)
-                        self.hard.append(cl)
+                        self._add(cl, ("triple", (u, b, w)))
                         count += 1
         return count
 
@@ -492,6 +554,33 @@ def _gamma_ties(p: Problem, eid: dict[int, int]):
                     e2.append(eid[v * n + x] if v < x else eid[x * n + v])
                     flip.append(int(vy != (v < x)))
     return e1, e2, flip
+
+
+def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key] | None:
+    """Requirements along breadth-first paths of Γ steps from arc node ``root`` to each target
+    (None if a target is not reachable, which would be a bug)."""
+    from scipy.sparse.csgraph import breadth_first_order
+
+    _, pred = breadth_first_order(graph, root, directed=False, return_predecessors=True)
+
+    def arc(node: int) -> Arc:
+        a, b = edges[node // 2]
+        return (a, b) if node % 2 == 0 else (b, a)
+
+    out: dict[Key, None] = {}
+    for t in targets:
+        node = t
+        while node != root:
+            prev = int(pred[node])
+            if prev < 0:
+                return None
+            (a, b), (c, d) = arc(prev), arc(node)
+            x, y = (b, d) if a == c else (a, c)
+            out[("comparable", (min(a, b), max(a, b)))] = None
+            out[("comparable", (min(c, d), max(c, d)))] = None
+            out[("incomparable", (min(x, y), max(x, y)))] = None
+            node = prev
+    return list(out)
 
 
 def _conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:

@@ -305,12 +305,14 @@ def solve_sat(problem: Problem, solver: str | None = None,
         ans = Answer(problem, FEASIBLE, "sat", succ=succ, stats=stats)
     elif res is None:
         ans = Answer(problem, UNKNOWN, "sat", stats=stats)
-    elif s.enc.unsat_reason is not None:  # an implication class holds an arc and its reverse
-        stats["core"] = {"source": "implication class conflict"}
-        core = [{"kind": kind, "pair": pair} for kind, pair in s.enc.unsat_reason]
-        ans = Answer(problem, INFEASIBLE, "sat", core=core, stats=stats)
     else:
-        core, core_stats = find_core(problem, solver=name, deadline=deadline)
+        if s.enc.unsat_reason is not None:  # an implication class holds an arc and its reverse
+            core, core_stats = _shrink_candidate(problem, s.enc.unsat_reason, name, deadline)
+            core_stats["source"] = "implication class conflict"
+        else:
+            core, core_stats = _core_via_clauses(s, problem, name, deadline)
+        if core is None:
+            core, core_stats = find_core(problem, solver=name, deadline=deadline)
         stats["core"] = core_stats
         if core is None:  # refuted, but no core within the time limit: say so honestly
             stats["note"] = "refuted without a core within the time limit"
@@ -361,3 +363,64 @@ def find_core(problem: Problem, solver: str | None = None, deadline: float | Non
     stats["size"] = len(core)
     stats["minimal"] = minimal
     return [{"kind": kind, "pair": pair} for kind, pair in core], stats
+
+
+def _core_via_clauses(session: SatSession, problem: Problem, solver: str,
+                      deadline: float | None):
+    """A core from a refuted collapsed encoding, without re-encoding the whole problem with
+    selectors: guard each clause by its own literal and ask the solver which clauses it needed;
+    the requirements behind those clauses (:meth:`Encoding.requirements_behind`) form a small
+    infeasible sub-problem, whose core :func:`find_core` then shrinks.  ``(None, stats)`` when
+    this does not work out (the caller falls back to the full selector encoding)."""
+    from pysat.solvers import Solver
+
+    enc = session.enc
+    base = enc.nv
+    t0 = time.perf_counter()
+    with Solver(name=solver) as t:
+        for k, cl in enumerate(enc.hard):
+            t.add_clause(cl + [-(base + k + 1)])
+        runner = SatSession.__new__(SatSession)  # reuse the limit/interrupt plumbing only
+        runner.solver, runner.solver_name = t, solver
+        runner._interruptible = session._interruptible
+        res = runner._run([base + k + 1 for k in range(len(enc.hard))], deadline)
+        if res is not False:
+            return None, {"clause_core": "not refuted"}
+        ids = [lit - base - 1 for lit in t.get_core() or ()]
+    keys = enc.requirements_behind(ids)
+    stats = {"clause_core": len(ids), "candidate": None if keys is None else len(keys),
+             "clause_core_seconds": round(time.perf_counter() - t0, 6)}
+    if not keys:
+        return None, stats
+    core, sub_stats = _shrink_candidate(problem, keys, solver, deadline)
+    stats.update(sub_stats)
+    return core, stats
+
+
+def _shrink_candidate(problem: Problem, keys: list[Key], solver: str, deadline: float | None):
+    """A core inside the candidate requirement set ``keys`` (believed infeasible), found on the
+    small problem made of ``keys`` alone; ``(None, stats)`` if that problem is feasible."""
+    sub, ids_back = _sub_problem(problem, keys)
+    core, stats = find_core(sub, solver=solver, deadline=deadline)
+    stats["candidate"] = len(keys)
+    if core is None:
+        return None, stats
+    for r in core:
+        a, b = r["pair"]
+        r["pair"] = (ids_back[a], ids_back[b])
+    return core, stats
+
+
+def _sub_problem(problem: Problem, keys: list[Key]):
+    """The problem made of ``keys`` alone (every other pair of its items open), and the map
+    from its item ids back to ``problem``'s."""
+    from .problem import ProblemBuilder
+
+    names = problem.items
+    b = ProblemBuilder(f"{problem.source} (core candidate)")
+    b.incomparable_list()
+    for kind, (x, y) in keys:
+        getattr(b, kind)(names[x], names[y], kind)
+    sub = b.build()
+    index = problem.index
+    return sub, [index[name] for name in sub.items]
