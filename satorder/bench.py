@@ -367,18 +367,8 @@ def _context():
         if _CONTEXT is None:
             if "forkserver" in mp.get_all_start_methods():
                 ctx = mp.get_context("forkserver")
-                # workers re-import the main module: preload what the CLI imports too; a
-                # module that fails to import here is left out, so it cannot take the
-                # server down with it (its runs then report the error as rows)
-                preload = []
-                for name in ("satorder.bench", "satorder.solve", "satorder.readers",
-                             "satorder.sat", "pysat.solvers", "satorder.cli.main"):
-                    try:
-                        importlib.import_module(name)
-                        preload.append(name)
-                    except Exception:  # noqa: BLE001
-                        pass
-                ctx.set_forkserver_preload(preload)
+                # the engines, and what the CLI's main module imports (workers re-import it)
+                ctx.set_forkserver_preload(["satorder.bench_preload"])
             else:
                 ctx = mp.get_context("spawn")
             _CONTEXT = ctx
