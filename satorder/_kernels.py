@@ -95,3 +95,46 @@ def csr(adj: list[set[int]]):
     np.cumsum(deg, out=indptr[1:])
     indices = np.fromiter(chain.from_iterable(adj), dtype=np.int32, count=int(indptr[-1]))
     return indptr, indices
+
+
+@njit(cache=True)
+def _find(parent, x):  # pragma: no cover - compiled
+    root = x
+    while parent[root] != root:
+        root = parent[root]
+    while parent[x] != root:
+        nxt = parent[x]
+        parent[x] = root
+        x = nxt
+    return root
+
+
+@njit(cache=True)
+def doubled_components(m, e1, e2, flip):  # pragma: no cover - compiled
+    """Connected components of the doubled tie graph (union-find, path compression).
+
+    Node ``2e`` is edge e oriented lo→hi, ``2e+1`` the reverse; a tie between edges e1 and e2
+    joins ``2*e1`` with ``2*e2 + flip`` and ``2*e1 + 1`` with ``2*e2 + 1 - flip``.
+    Returns (number of components, component label of each node, labels 0..k-1).
+    """
+    size = 2 * m
+    parent = np.arange(size)
+    for i in range(len(e1)):
+        for a, b in ((2 * e1[i], 2 * e2[i] + flip[i]), (2 * e1[i] + 1, 2 * e2[i] + 1 - flip[i])):
+            ra = _find(parent, a)
+            rb = _find(parent, b)
+            if ra != rb:
+                if ra < rb:
+                    parent[rb] = ra
+                else:
+                    parent[ra] = rb
+    label = np.full(size, -1, dtype=np.int64)
+    comp = np.empty(size, dtype=np.int64)
+    k = 0
+    for x in range(size):
+        r = _find(parent, x)
+        if label[r] < 0:
+            label[r] = k
+            k += 1
+        comp[x] = label[r]
+    return k, comp

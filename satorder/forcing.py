@@ -39,8 +39,6 @@ from dataclasses import dataclass
 from itertools import chain
 
 import numpy as np
-from scipy.sparse import coo_matrix
-from scipy.sparse.csgraph import breadth_first_order, connected_components
 
 from . import _kernels
 
@@ -162,17 +160,12 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     e2 = np.searchsorted(keys, np.minimum(vs, xs) * n + np.maximum(vs, xs))
     fl = ((vs < rs) != (vs < xs)).astype(np.int64)
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
-    src = np.concatenate([2 * e1, 2 * e1 + 1])
-    dst = np.concatenate([2 * e2 + fl, 2 * e2 + 1 - fl])
-    graph = coo_matrix(
-        (np.ones(len(src), dtype=np.int8), (src, dst)), shape=(2 * m, 2 * m)
-    ).tocsr()
-    ncomp, comp = connected_components(graph, directed=False)
+    ncomp, comp = _components(m, e1, e2, fl)
     c0 = comp[0::2]
     c1 = comp[1::2]
     bad = np.flatnonzero(c0 == c1)
     if len(bad):
-        chain = _conflict_chain(adj, graph, int(bad[0]), lo, hi)
+        chain = _conflict_chain(adj, _tie_graph(m, e1, e2, fl), int(bad[0]), lo, hi)
         return ForcingResult(n, False, lo, hi, None, ncomp // 2, chain)
     # orient each class: keep the direction whose smallest tail < smallest head
     big = np.iinfo(np.int64).max
@@ -186,6 +179,26 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     h0 = minhead[c0]
     up = (k0 < h0) | ((k0 == h0) & (c0 < c1))
     return ForcingResult(n, True, lo, hi, up, ncomp // 2, None)
+
+
+def _components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
+    """Components of the doubled tie graph: compiled union-find, or scipy without numba."""
+    if _kernels.HAVE_NUMBA:
+        return _kernels.doubled_components(m, e1, e2, fl)
+    from scipy.sparse.csgraph import connected_components
+
+    return connected_components(_tie_graph(m, e1, e2, fl), directed=False)
+
+
+def _tie_graph(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
+    """The doubled tie graph as a scipy sparse matrix (2m nodes)."""
+    from scipy.sparse import coo_matrix
+
+    src = np.concatenate([2 * e1, 2 * e1 + 1])
+    dst = np.concatenate([2 * e2 + fl, 2 * e2 + 1 - fl])
+    return coo_matrix(
+        (np.ones(len(src), dtype=np.int8), (src, dst)), shape=(2 * m, 2 * m)
+    ).tocsr()
 
 
 def _complement_path(adj: list[set[int]], nb: set[int], r: int, x: int) -> list[int]:
@@ -208,6 +221,8 @@ def _complement_path(adj: list[set[int]], nb: set[int], r: int, x: int) -> list[
 def _conflict_chain(adj, graph, e: int, lo: np.ndarray, hi: np.ndarray) -> list[ForcingStep]:
     """Shortest chain (in the link graph) from arc lo[e]→hi[e] to its reverse, expanded into
     single Γ steps, each with its witness pair."""
+    from scipy.sparse.csgraph import breadth_first_order
+
     _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
     path = [2 * e + 1]
     while path[-1] != 2 * e:

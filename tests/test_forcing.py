@@ -114,3 +114,23 @@ def test_compiled_and_pure_python_co_components_agree():
         fast = partition(co_component_ties(adj, compiled=True), n)
         slow = partition(co_component_ties(adj, compiled=False), n)
         assert fast == slow
+
+
+def test_compiled_union_find_matches_scipy_components():
+    # the compiled union-find and scipy's connected_components must give the same partition
+    import numpy as np
+    from scipy.sparse.csgraph import connected_components
+
+    from satorder import _kernels
+    from satorder.forcing import _tie_graph
+
+    rnd = np.random.default_rng(3)
+    for _ in range(30):
+        m = int(rnd.integers(1, 60))
+        k = int(rnd.integers(0, 80))
+        e1, e2 = rnd.integers(0, m, k), rnd.integers(0, m, k)
+        fl = rnd.integers(0, 2, k)
+        _, ours = _kernels.doubled_components(m, e1, e2, fl)
+        _, ref = connected_components(_tie_graph(m, e1, e2, fl), directed=False)
+        pairs = set(zip(ours.tolist(), ref.tolist()))
+        assert len(pairs) == len(set(ours.tolist())) == len(set(ref.tolist()))
