@@ -10,6 +10,7 @@ why none exists) out.
 from .answer import Answer
 from .count import count_answers
 from .errors import CertificateError, InputError
+from .explain import explain
 from .modular import modular_decomposition
 from .problem import Problem
 from .readers import problem_from_dict, read_problem
@@ -20,6 +21,7 @@ __all__ = [
     "CertificateError",
     "InputError",
     "count_answers",
+    "explain",
     "modular_decomposition",
     "Problem",
     "problem_from_dict",
