@@ -6,7 +6,6 @@ from __future__ import annotations
 from rich.console import Console
 from rich.table import Table
 
-from . import order as order_ops
 from .derivation import describe
 
 MAX_STEPS = 120
@@ -93,12 +92,11 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
             drops = "; ".join(requirement_text(r, names) for r in rep.drop)
             console.print(f"  {k}. drop: {drops}")
             if rep.succ is not None:
-                cover = [(a, b) for a, b in order_ops.covering_pairs(rep.succ)
-                         if a in focus and b in focus]
+                cover = sorted((a, b) for a in focus for b in rep.succ[a] if b in focus)
                 total = sum(len(s) for s in rep.succ)
                 shown = ", ".join(f"{names[a]} < {names[b]}" for a, b in cover[:MAX_ORDER_PAIRS])
                 more = " …" if len(cover) > MAX_ORDER_PAIRS else ""
-                console.print(f"     then an order with {total} ordered pairs exists; around "
-                              f"the core: {shown or 'nothing ordered'}{more}")
+                console.print(f"     then an order with {total} ordered pairs exists; among "
+                              f"the core's items: {shown or 'nothing ordered'}{more}")
     for note in expl.notes:
         console.print(f"[yellow]Note: {note}[/]")
