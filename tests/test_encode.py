@@ -200,3 +200,46 @@ def test_demo_shows_rules_open_pairs_and_a_core(capsys):
     text = capsys.readouterr().out
     assert "part 2" in text and "part 3" in text and "INFEASIBLE" in text
     assert "broken" not in text
+
+
+def _slow_problem_file(tmp_path) -> str:
+    """A dense open-pair problem (generated, feasible) that takes the SAT engine seconds."""
+    from satorder.generate import open_pairs
+
+    path = tmp_path / "slow.json"
+    path.write_text(open_pairs(300, seed=1, degree=20.0).to_json_text())
+    return str(path)
+
+
+def test_time_limit_gives_unknown_and_exit_3(tmp_path, capsys):
+    src = _slow_problem_file(tmp_path)
+    assert main(["solve", src, "--json", "--time-limit", "0.05"]) == 3
+    doc = json.loads(capsys.readouterr().out)
+    assert doc["status"] == "unknown" and not doc["verified"] and "order" not in doc
+
+
+@pytest.mark.parametrize("solver, limit", [("cadical195", None), ("glucose4", 600.0),
+                                           ("cadical195", 600.0)])
+def test_ctrl_c_stops_cleanly(solver, limit):
+    # SIGINT while the engine runs (in the solver or between rounds) surfaces as
+    # KeyboardInterrupt, which the CLI turns into exit status 130; the process stays usable
+    import os
+    import signal
+    import threading
+    import time
+
+    from satorder.generate import open_pairs
+    from satorder.readers import problem_from_dict
+
+    p = problem_from_dict(open_pairs(300, seed=1, degree=20.0).to_dict())
+    timer = threading.Timer(0.7, os.kill, (os.getpid(), signal.SIGINT))
+    t0 = time.monotonic()
+    timer.start()
+    try:
+        with pytest.raises(KeyboardInterrupt):
+            solve_sat(p, solver=solver, time_limit=limit)
+    finally:
+        timer.cancel()
+    assert time.monotonic() - t0 < 30
+    tiny = Problem.from_lists(fixed=[("a", "b")], incomparable=[("b", "c")])
+    assert solve_sat(tiny, solver=solver).feasible
