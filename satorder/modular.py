@@ -130,6 +130,9 @@ class _Decomposer:
         self.blk = [0] * n  # current part id of each item
         self.parts: list[set[int]] = [set(range(n))]
         self.owner: list[int] = [0]  # context (module being decomposed) of each part
+        # a Python set never shrinks its table, and iterating it costs the table size: a part
+        # is copied afresh once it holds less than a quarter of its table (amortised O(1))
+        self.cap: list[int] = [n]
         self.mark = [0] * n
         self.token = 0
 
@@ -138,10 +141,20 @@ class _Decomposer:
         pid = len(self.parts)
         self.parts.append(set(members))
         self.owner.append(ctx)
+        self.cap.append(len(self.parts[pid]))
         blk = self.blk
         for u in members:
             blk[u] = pid
         return pid
+
+    def _remove(self, pid: int, members) -> set[int]:
+        """Take ``members`` out of part ``pid``; returns the part (compacted when sparse)."""
+        rest = self.parts[pid]
+        rest.difference_update(members)
+        if len(rest) * 4 < self.cap[pid]:
+            rest = self.parts[pid] = set(rest)
+            self.cap[pid] = len(rest)
+        return rest
 
     def _split_by(self, touched: list[int], ctx: int, created: list[int], queue: list) -> None:
         """Split every part by the set ``touched`` (no duplicates); record new parts and the
@@ -162,7 +175,7 @@ class _Decomposer:
             rest = parts[pid]
             if len(g) == len(rest):
                 continue
-            rest.difference_update(g)
+            rest = self._remove(pid, g)
             created.append(self._new_part(g, ctx))
             queue.append(g if len(g) <= len(rest) else list(rest))
 
@@ -217,7 +230,7 @@ class _Decomposer:
                 for i, g in enumerate(gs):
                     if i == big:
                         continue
-                    rest.difference_update(g)
+                    rest = self._remove(pid, g)
                     created.append(self._new_part(g, ctx))
                     queue.append(g)
         return pv, [p for p in created if self.parts[p]]
@@ -249,12 +262,14 @@ class _Decomposer:
                 y = frontier.pop()
                 ny = nq[y]
                 found = [p for p in un_a if p not in ny]
-                un_a.difference_update(found)
+                if found:
+                    un_a = _without(un_a, found)
                 if len(ny) < len(un_b):
                     fb = [p for p in ny if p in un_b]
                 else:
                     fb = [p for p in un_b if p in ny]
-                un_b.difference_update(fb)
+                if fb:
+                    un_b = _without(un_b, fb)
                 for p in found + fb:
                     seen.add(p)
                     frontier.append(p)
@@ -275,7 +290,8 @@ class _Decomposer:
                     found = [p for p in ny if p in un]
                 else:
                     found = [p for p in un if p in ny]
-                un.difference_update(found)
+                if found:
+                    un = _without(un, found)
                 for p in found:
                     seen.add(p)
                     frontier.append(p)
@@ -348,6 +364,14 @@ class _Decomposer:
             return t
         (item,) = self.parts[pid]
         return ModuleNode(LEAF, item=item)
+
+
+def _without(s: set[int], items: list[int]) -> set[int]:
+    """``s`` minus ``items``, copied afresh when the result is under a quarter of the old size
+    (iterating a Python set costs its table size, which never shrinks)."""
+    before = len(s)
+    s.difference_update(items)
+    return set(s) if len(s) * 4 < before else s
 
 
 def _spliced(node: ModuleNode, kind: str) -> list[ModuleNode]:
