@@ -21,7 +21,8 @@ intersection is P (Dushnik & Miller 1941).  How it is found here:
 3. **SAT for dimension ≥ 3** on parts of at most ``sat_limit`` items: ``k`` linear orders, each
    extending P (transitivity clauses over item triples), that together reverse every
    incomparable pair; ``k = 3, 4, …`` until satisfiable.  Parts of up to ``3 · sat_limit``
-   items get one short try (5 s) for three orders, which settles dimension 3 when it succeeds.
+   items get one short try (5 s) for three orders, which settles dimension 3 when it succeeds
+   and, on parts of at most 60 items, proves dimension ≥ 4 when it fails.
 4. **Large parts** (incomparability graph too large to build): first a quick search for a small
    sub-order of dimension ≥ 3 among random connected pieces; if none, *ordered vertex
    partitioning* (McConnell & Spinrad 2000) on the incomparability graph, driven by the
@@ -726,6 +727,11 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> _Part:
             r = sat_realizer(sub, 3, max(0.1, left)) if left > 0 else "unknown"
             if isinstance(r, list):
                 return _Part(3, 3, [[items[i] for i in lin] for lin in r], wit, 3)
+            if r is None and upper >= 4 and k <= 60:  # proven: no 3 orders (checkable size)
+                part = _bounded(succ, items, 4, upper, list(items), 4, sub, deadline)
+                notes.append(f"a part of {k} items has dimension ≥ 4 and more than "
+                             f"{sat_limit} items (the SAT limit); dimension bounded")
+                return part
         part = _bounded(succ, items, 3, max(3, upper), wit, 3, sub, deadline)
         if part.upper > 3:
             notes.append(f"a part of {k} items has dimension ≥ 3 and more than {sat_limit} "
