@@ -176,7 +176,8 @@ def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
     """
     if "#" in text:
         text = "\n".join(ln.split("#", 1)[0] for ln in text.split("\n"))
-    per_line = _fields_per_line(text)
+    tokens = text.split()
+    per_line = _fields_per_line(text, tokens)
     bad = np.flatnonzero((per_line != 0) & (per_line != 2))
     if len(bad):
         line = int(bad[0]) + 1
@@ -185,7 +186,6 @@ def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
             f"{source}: line {line}: expected two item names, found {fields} field"
             f"{'s' if fields != 1 else ''}; write one pair per line as 'a b'"
         )
-    tokens = text.split()
     if not tokens:
         raise InputError(f"{source}: no pairs found; write one pair per line as 'a b'")
     items = list(dict.fromkeys(tokens))
@@ -213,19 +213,20 @@ def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
     return p
 
 
-def _fields_per_line(text: str) -> np.ndarray:
-    """Number of whitespace-separated fields on each line, computed on the raw bytes with
-    numpy (no per-line Python work).  Non-ASCII whitespace falls back to ``str.split``."""
+def _fields_per_line(text: str, tokens: list[str]) -> np.ndarray:
+    """Number of whitespace-separated fields on each line, from the raw bytes with numpy (no
+    per-line Python work).  Exact: if the byte-level token count differs from ``str.split``'s
+    (only possible with non-ASCII white space) the lines are counted one by one."""
     raw = np.frombuffer(text.encode("utf-8"), dtype=np.uint8)
-    newline = raw == 10
-    space = newline | (raw == 32) | ((raw >= 9) & (raw <= 13))
+    # str.split's ASCII white space: \t \n \v \f \r, \x1c-\x1f and the space
+    space = (raw == 32) | ((raw >= 9) & (raw <= 13)) | ((raw >= 28) & (raw <= 31))
     starts = ~space
     starts[1:] &= space[:-1]
-    line_of = np.cumsum(newline)
-    counts = np.bincount(line_of[starts], minlength=int(line_of[-1]) + 1 if len(raw) else 1)
-    if raw.max(initial=0) >= 128:  # a non-ASCII space would be missed above: count exactly
-        counts = np.array([len(ln.split()) for ln in text.split("\n")], dtype=np.int64)
-    return counts
+    start_pos = np.flatnonzero(starts)
+    if len(start_pos) != len(tokens):
+        return np.array([len(ln.split()) for ln in text.split("\n")], dtype=np.int64)
+    line_of = np.searchsorted(np.flatnonzero(raw == 10), start_pos)
+    return np.bincount(line_of, minlength=1)
 
 
 def _line_of_pair(text: str, k: int) -> int:

@@ -183,3 +183,24 @@ def test_check_order_rejects_non_transitive_and_out_of_range():
     with pytest.raises(CertificateError, match="unknown item"):
         certify.check_order(p, [{1, 2, 7}, {2}, set()])
     certify.check_order(p, [{1, 2}, {2}, set()])
+
+
+@pytest.mark.parametrize(
+    "text,line",
+    [
+        ("a b\nc\nd e f\n", 2),  # one field then three: the token count alone would balance
+        ("a b\r\nc d e\r\n", 2),  # Windows line ends
+        ("a b\nc\u00a0d e\n", 2),  # a non-ASCII space splits like str.split does
+        ("# header\n\na b # note\nx\n", 4),
+    ],
+)
+def test_edge_list_field_errors_name_the_right_line(tmp_path, text, line):
+    f = write(tmp_path, "g.txt", text)
+    with pytest.raises(InputError, match=f"line {line}:"):
+        read_problem(f)
+
+
+def test_edge_list_accepts_crlf_comments_and_unicode_names(tmp_path):
+    f = write(tmp_path, "g.txt", "# festival\r\nkiln loom\r\n\r\nloom café  # note\r\n")
+    p = read_problem(f)
+    assert sorted(p.items) == ["café", "kiln", "loom"] and p.num_comparable == 2
