@@ -323,27 +323,42 @@ class Encoding:
         n = self.n
         pair = self._pair
         p = self.problem
+        adj = p.adj
+        hard = self.hard
+        origin = self.origin
+        lt = self.lt
         count = 0
         for a, b, c in triples:
-            x, y = self.lt(a, b), self.lt(b, c)
+            lits = pair.get(a * n + b if a < b else b * n + a)  # usually exists: a<b holds
+            x = (lits[0] if a < b else lits[1]) if lits is not None else lt(a, b)
+            lits = pair.get(b * n + c if b < c else c * n + b)
+            y = (lits[0] if b < c else lits[1]) if lits is not None else lt(b, c)
             if x is None or y is None:
                 continue
             key = a * n + c if a < c else c * n + a
-            if key not in pair and c not in p.adj[a] and p.must_be_unordered(a, c):
+            lits = pair.get(key)
+            if lits is None and c not in adj[a] and p.must_be_unordered(a, c):
                 if not self.selectors:
-                    self._add([-x, -y] if x != y else [-x], ("triple", (a, b, c)))
+                    origin[len(hard)] = ("triple", (a, b, c))
+                    hard.append([-x, -y] if x != y else [-x])
                     count += 1
                     continue
                 req = ("incomparable", (min(a, c), max(a, c)))
                 if active is None or active(req):
-                    self.hard.append([-self.selector(*req), -x, -y])
+                    hard.append([-self.selector(*req), -x, -y])
                     count += 1
                     continue
-            z = self.lt(a, c)
-            cl = list(dict.fromkeys((-x, -y) if z is None else (-x, -y, z)))
-            if any(-lit in cl for lit in cl):
+            z = ((lits[0] if a < c else lits[1]) if lits is not None else lt(a, c))
+            if z is None:
+                cl = [-x, -y] if x != y else [-x]
+            elif x != y and z != -x and z != -y:
+                cl = [-x, -y, z]
+            else:
+                cl = list(dict.fromkeys((-x, -y, z)))
+            if x == -y or z == x or z == y:
                 continue  # tautology
-            self._add(cl, ("triple", (a, b, c)))
+            origin[len(hard)] = ("triple", (a, b, c))
+            hard.append(cl)
             count += 1
         return count
 

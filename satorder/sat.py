@@ -99,7 +99,8 @@ class SatSession:
         self._succ: list[set[int]] | None = None
         self._core: list[int] | None = None
         self.stats = {"solver": self.solver_name, "variables": 0, "clauses": 0, "rounds": 0,
-                      "solver_calls": 0, "encode_seconds": 0.0, "solve_seconds": 0.0}
+                      "solver_calls": 0, "encode_seconds": 0.0, "solve_seconds": 0.0,
+                      "sat_seconds": 0.0}
         self._sync()
         self.stats["encode_seconds"] = round(time.perf_counter() - t0, 6)
 
@@ -171,7 +172,10 @@ class SatSession:
                 self._sync()
                 assume = self._assumptions(keep, extra)
                 self.stats["solver_calls"] += 1
+                t1 = time.perf_counter()
                 res = self._run(assume, deadline)
+                self.stats["sat_seconds"] = round(
+                    self.stats["sat_seconds"] + time.perf_counter() - t1, 6)
                 if res is None:
                     return None
                 if res is False:
@@ -179,7 +183,7 @@ class SatSession:
                     return False
                 model = self.solver.get_model()
                 succ = self.enc.decode(model)
-                bad = self.enc.violations(succ)
+                bad = self.enc.violations(succ, limit=max(100_000, 20 * self.enc.n))
                 if not bad:
                     self.model = model
                     self._succ = succ
