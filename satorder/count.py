@@ -94,7 +94,10 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
         method = ENUMERATION if problem.has_open_pairs else DECOMPOSITION
     if method == DECOMPOSITION:
         if problem.has_open_pairs:
-            raise ValueError("the decomposition method needs a problem without open pairs")
+            from .errors import InputError
+
+            raise InputError(f"{problem.source}: has open pairs, which the decomposition "
+                             "method cannot count; use the enumeration method (or auto)")
         try:
             res = _count_by_decomposition(problem)
         except TooManyStates:

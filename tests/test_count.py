@@ -228,3 +228,18 @@ def test_cli_count_bad_input(tmp_path, capsys):
     path.write_text('{"comparable": [["a"]]}')
     assert main(["count", str(path), "--json"]) == 2
     assert main(["count", str(path), "--limit", "0"]) == 2
+
+
+def test_cli_count_rejects_decomposition_with_open_pairs(tmp_path, capsys):
+    path = tmp_path / "open.json"
+    path.write_text(json.dumps({"comparable": [["a", "b"]], "incomparable": [],
+                                "items": ["c"]}))
+    assert main(["count", str(path), "--method", DECOMPOSITION]) == 2
+    assert "open pairs" in capsys.readouterr().err
+    # the same file by enumeration: 3 items with a, b comparable and the other pairs open;
+    # brute force over all labelled posets gives the reference
+    out = tmp_path / "count.json"
+    assert main(["count", str(path), "--json", "--out", str(out)]) == 0
+    doc = json.loads(out.read_text())
+    p = Problem.from_lists(comparable=[("a", "b")], incomparable=[], items=["c"])
+    assert doc["count"] == brute_count(p) and doc["method"] == ENUMERATION and doc["exact"]
