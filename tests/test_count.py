@@ -243,3 +243,15 @@ def test_cli_count_rejects_decomposition_with_open_pairs(tmp_path, capsys):
     doc = json.loads(out.read_text())
     p = Problem.from_lists(comparable=[("a", "b")], incomparable=[], items=["c"])
     assert doc["count"] == brute_count(p) and doc["method"] == ENUMERATION and doc["exact"]
+
+
+def test_cli_count_draws_the_decomposition(tmp_path, capsys):
+    # P4 (a-b-c-d) is prime: its picture has one prime node over four leaves
+    path = tmp_path / "p4.txt"
+    path.write_text("a b\nb c\nc d\n")
+    svg = tmp_path / "tree.svg"
+    assert main(["count", str(path), "--draw", str(svg)]) == 0
+    text = svg.read_text()
+    assert text.startswith("<svg") and text.count(">prime<") == 1
+    assert all(f">{name}</text>" in text for name in "abcd")
+    assert main(["count", str(path), "--draw", str(tmp_path / "tree.png")]) == 2

@@ -8,6 +8,7 @@ from ..count import DECOMPOSITION, ENUMERATION, check_count, count_answers
 from .common import UsageError, atomic_write, check_output_path, dumps, err, load, out, print_json
 
 TREE_LIMIT = 60  # items up to which the decomposition tree is drawn on screen
+DRAW_LIMIT = 300  # items up to which --draw makes a picture
 
 
 def decomposition_tree(problem):
@@ -51,6 +52,8 @@ def add_parser(sub):
     p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
                    help="enumeration stops after SECONDS and reports a lower bound")
     p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
+    p.add_argument("--draw", metavar="FILE.svg",
+                   help=f"draw the modular decomposition tree (up to {DRAW_LIMIT} items)")
     return p
 
 
@@ -59,6 +62,12 @@ def run(args) -> int:
     if args.limit is not None and args.limit < 1:
         raise UsageError(f"--limit must be at least 1, got {args.limit}")
     problem = load(args.file)
+    if args.draw:
+        check_output_path(args.draw, args.file)
+        if not args.draw.lower().endswith(".svg"):
+            raise UsageError(f"{args.draw}: --draw writes SVG; give a file name ending in .svg")
+        if problem.n > DRAW_LIMIT or problem.n == 0:
+            raise UsageError(f"{args.file}: {problem.n} items; --draw needs 1 to {DRAW_LIMIT}")
     with Progress(SpinnerColumn(), TextColumn("{task.description}"), TimeElapsedColumn(),
                   console=err, transient=True, disable=args.json) as bar:
         task = bar.add_task("counting…", total=None)
@@ -72,6 +81,14 @@ def run(args) -> int:
         bar.update(task, description="checking the count with another engine…")
         check_count(res, solver=args.solver)
     doc = res.to_json()
+    if args.draw:
+        from ..modular import modular_decomposition
+        from ..modular_picture import decomposition_svg
+
+        title = f"{problem.source}: modular decomposition of the comparable pairs"
+        atomic_write(args.draw, decomposition_svg(modular_decomposition(problem.adj),
+                                                  problem.items, title))
+        err.print(f"wrote {args.draw}", markup=False)
     if args.out:
         atomic_write(args.out, dumps(doc))
     if args.json:
