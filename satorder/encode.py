@@ -58,6 +58,10 @@ import json
 from collections.abc import Iterable, Iterator
 from itertools import chain, islice
 
+import numpy as np
+from scipy.sparse import coo_matrix
+from scipy.sparse.csgraph import breadth_first_order, connected_components
+
 from .problem import Problem
 
 Arc = tuple[int, int]
@@ -202,10 +206,6 @@ class Encoding:
         """One variable per implication class of comparable pairs (Γ through pairs that must
         stay unordered): connected components of the graph whose nodes are the two directions
         of each comparable pair and whose links are single Γ steps."""
-        import numpy as np
-        from scipy.sparse import coo_matrix
-        from scipy.sparse.csgraph import connected_components
-
         p = self.problem
         n = self.n
         edges = list(p.comparable_pairs())
@@ -411,8 +411,6 @@ class Encoding:
 
     def _pair_arrays(self):
         """The pair table as numpy arrays (key, lit a<b, lit b<a), extended incrementally."""
-        import numpy as np
-
         cache = self.__dict__.setdefault("_arrays", [0, [], [], []])
         count = len(self._pair)
         if cache[0] < count:
@@ -434,8 +432,6 @@ class Encoding:
         """Successor sets of the relation a model sets: ``b in succ[a]`` iff ``a<b`` is true.
 
         Variables missing from the model count as false."""
-        import numpy as np
-
         n = self.n
         keys, ups, downs = self._pair_arrays()
         m = np.asarray(list(model), dtype=np.int64)
@@ -516,8 +512,6 @@ class Encoding:
 
 
 def _violations_matrix(succ: list[set[int]], limit: int | None):
-    import numpy as np
-
     n = len(succ)
     lens = np.fromiter((len(x) for x in succ), dtype=np.int64, count=n)
     tails = np.repeat(np.arange(n), lens)
@@ -574,8 +568,6 @@ def _gamma_ties(p: Problem, eid: dict[int, int]):
 def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key] | None:
     """Requirements along breadth-first paths of Γ steps from arc node ``root`` to each target
     (None if a target is not reachable, which would be a bug)."""
-    from scipy.sparse.csgraph import breadth_first_order
-
     _, pred = breadth_first_order(graph, root, directed=False, return_predecessors=True)
 
     def arc(node: int) -> Arc:
@@ -601,8 +593,6 @@ def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Ke
 def _conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:
     """Requirements along a shortest chain of Γ steps from edge e's arc to its reverse: the
     comparable pairs of the chain and the pairs that must stay unordered forcing each step."""
-    from scipy.sparse.csgraph import breadth_first_order
-
     _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
     path = [2 * e + 1]
     while path[-1] != 2 * e:
