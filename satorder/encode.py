@@ -502,6 +502,8 @@ class Encoding:
             "c each line 'c LIT a<b' says literal LIT is true exactly when a comes before b;",
             "c pairs without a literal stay unordered",
         ]
+        if self.problem.prefer:
+            lines.append("c preferences are soft wishes and are not part of this CNF")
         lines += [f"c {lit} {text}" for lit, text in self.variable_names()]
         for (kind, (a, b)), s in sorted(self.selector_of.items(), key=lambda t: t[1]):
             lines.append(f"c selector {s} {kind} {_q(names[a])} {_q(names[b])}")
