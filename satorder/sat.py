@@ -312,11 +312,13 @@ def solve_sat(problem: Problem, solver: str | None = None,
     else:
         if s.enc.unsat_reason is not None:  # an implication class holds an arc and its reverse
             core, core_stats = _shrink_candidate(problem, s.enc.unsat_reason, name, deadline)
-            core_stats["source"] = "implication class conflict"
+            core_stats["method"] = "implication class conflict"
         else:
             core, core_stats = _core_via_clauses(s, problem, name, deadline)
+            core_stats["method"] = "clause provenance"
         if core is None:
             core, core_stats = find_core(problem, solver=name, deadline=deadline)
+            core_stats["method"] = "selector encoding"
         stats["core"] = core_stats
         if core is None:  # refuted, but no core within the time limit: say so honestly
             stats["note"] = "refuted without a core within the time limit"
