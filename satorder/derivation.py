@@ -226,14 +226,16 @@ def _linearise(root: _Node) -> list[Step]:
 
     def outside(node: _Node, case: _Node, acc: list[_Node], seen: set[int]) -> None:
         """Nodes the case's sub-proof uses from outside the case, in no particular order."""
-        if id(node) in seen:
-            return
-        seen.add(id(node))
-        if not any(s is case for s in node.scope):
-            acc.append(node)
-            return
-        for p in node.premises:
-            outside(p, case, acc, seen)
+        todo = [node]
+        while todo:
+            cur = todo.pop()
+            if id(cur) in seen:
+                continue
+            seen.add(id(cur))
+            if not any(s is case for s in cur.scope):
+                acc.append(cur)
+            else:
+                todo.extend(cur.premises)
 
     def emit(node: _Node) -> None:
         stack = [(node, False)]

@@ -176,6 +176,18 @@ def check_obstruction(problem: Problem, items: list[int]) -> None:
     if res.orientable:
         raise CertificateError("the obstruction's items induce an orientable subgraph")
     certify.check_forcing_chain(p, res.chain)
+    # an odd chordless cycle of length >= 5 is minimal by a published fact (Golumbic 1980,
+    # ch. 5: removing an item leaves paths, which are bipartite); checked structurally here
+    degrees = [len(nb) for nb in p.adj]
+    if len(items) >= 5 and len(items) % 2 == 1 and set(degrees) == {2}:
+        reach, todo = {0}, [0]
+        while todo:
+            for u in p.adj[todo.pop()]:
+                if u not in reach:
+                    reach.add(u)
+                    todo.append(u)
+        if len(reach) == len(items):
+            return
     for k in range(len(items)):
         q = sub_problem(items[:k] + items[k + 1:])
         r = transitive_orientation(q.adj)
@@ -378,19 +390,52 @@ def _engine_core(problem: Problem, time_limit: float):
     return core, bool(ans.stats.get("core", {}).get("minimal"))
 
 
-def check_core(problem: Problem, core: list[dict], replayed: bool) -> None:
+def forcing_witness(core: list[dict], k: int):
+    """An order meeting every member of ``core`` but member ``k``, from a transitive
+    orientation (Golumbic 1980, ch. 5): order exactly the pairs that must be ordered (plus the
+    pair of ``k`` when it is an unordered one) and nothing else.  Only for cores made of
+    comparable and unordered pairs; ``None`` when that graph has no transitive orientation."""
+    if any(r["kind"] not in ("comparable", "incomparable") for r in core):
+        return None
+    items = _items_of(core)
+    pos = {v: i for i, v in enumerate(items)}
+    adj: list[set[int]] = [set() for _ in items]
+    for j, r in enumerate(core):
+        if (r["kind"] == "comparable") != (j == k):
+            a, b = pos[r["pair"][0]], pos[r["pair"][1]]
+            adj[a].add(b)
+            adj[b].add(a)
+    res = transitive_orientation(adj)
+    if not res.orientable:
+        return None
+    return [(items[a], items[b]) for a, b in res.arcs()]  # transitively closed already
+
+
+def minimality_witnesses(core: list[dict]) -> dict[int, list]:
+    """One witness order per member of ``core`` (each meets all other members): from a
+    transitive orientation where one exists, otherwise from a SAT call.  Raises
+    :class:`CertificateError` when some member can be dropped (the core is not minimal)."""
+    witnesses = {k: w for k in range(len(core))
+                 if (w := forcing_witness(core, k)) is not None}
+    missing = [k for k in range(len(core)) if k not in witnesses]
+    if missing:
+        with core_oracle(core) as oracle:
+            everything = range(len(core))
+            for k in missing:
+                ok, arcs = oracle.check([j for j in everything if j != k])
+                if not ok:
+                    raise CertificateError(f"the core is not minimal: member {k} can be dropped")
+                witnesses[k] = arcs
+    return witnesses
+
+
+def check_core(problem: Problem, core: list[dict], replayed: bool, witnesses=None) -> None:
     """Independent checks of a core: one witness order per member shows minimality
     (:func:`satorder.core_check.check_minimality_witnesses`); infeasibility is shown by the
     replayed derivation (``replayed``) and, for cores on few items, also re-solved by
     :func:`satorder.certify.check_core_infeasible`."""
-    witnesses = {}
-    with core_oracle(core) as oracle:
-        everything = range(len(core))
-        for k in everything:
-            ok, arcs = oracle.check([j for j in everything if j != k])
-            if not ok:
-                raise CertificateError(f"the core is not minimal: member {k} can be dropped")
-            witnesses[k] = arcs
+    if witnesses is None:
+        witnesses = minimality_witnesses(core)
     check_minimality_witnesses(problem, core, witnesses)
     if not replayed or len(_items_of(core)) <= MINIMALITY_CHECK_ITEMS:
         certify.check_core_infeasible(problem, core)
@@ -446,6 +491,7 @@ def explain(
     small = problem.n <= WHOLE_PROBLEM_ITEMS
     whole_oracle = None
     core: list[dict] | None = None
+    core_witnesses = None
 
     if problem.incomparable is None:
         say("forcing")
@@ -459,8 +505,12 @@ def explain(
             expl.obstruction = ob
             stats["obstruction_seconds"] = round(time.perf_counter() - t, 6)
             start = _chain_core(problem, ob)
-            with core_oracle(start) as oracle:
-                core = [start[k] for k in minimal_core(oracle, range(len(start)))]
+            try:  # often the chain's requirements are already a minimal core
+                core_witnesses = minimality_witnesses(start)
+                core = start
+            except CertificateError:
+                with core_oracle(start) as oracle:
+                    core = [start[k] for k in minimal_core(oracle, range(len(start)))]
         elif problem.is_plain:
             certify.check_order(problem, res.successor_sets())
             expl.status, expl.verified = FEASIBLE, True
@@ -511,7 +561,7 @@ def explain(
     stats["derivation_seconds"] = round(time.perf_counter() - t, 6)
     say("checking the core")
     t = time.perf_counter()
-    check_core(problem, core, replayed=expl.steps is not None)
+    check_core(problem, core, replayed=expl.steps is not None, witnesses=core_witnesses)
     stats["core_check_seconds"] = round(time.perf_counter() - t, 6)
 
     if smallest or repairs:

@@ -84,6 +84,25 @@ def _orientable(adj: list[set[int]], items: list[int]) -> tuple[bool, list[int]]
     return False, [order[v] for v in chain_items(res.chain)]
 
 
+def is_odd_hole(adj: list[set[int]], items: Iterable[int]) -> bool:
+    """True when ``items`` induce a chordless cycle of odd length at least 5 — a minimal
+    obstruction by itself (Golumbic 1980, ch. 5: odd holes are not comparability graphs, and
+    every proper induced subgraph, a union of paths, is one)."""
+    items = list(items)
+    keep = set(items)
+    if len(items) < 5 or len(items) % 2 == 0:
+        return False
+    if any(len(adj[v] & keep) != 2 for v in items):
+        return False
+    seen, stack = {items[0]}, [items[0]]  # 2-regular: a single cycle iff connected
+    while stack:
+        for u in adj[stack.pop()] & keep:
+            if u not in seen:
+                seen.add(u)
+                stack.append(u)
+    return len(seen) == len(items)
+
+
 def minimise_obstruction(adj: list[set[int]], items: Iterable[int]) -> list[int]:
     """Shrink a set of items inducing a non-orientable subgraph to a minimal such set.
 
@@ -93,7 +112,7 @@ def minimise_obstruction(adj: list[set[int]], items: Iterable[int]) -> list[int]
     if ok:
         raise ValueError("the items induce a comparability graph; nothing to minimise")
     needed: set[int] = set()
-    while True:
+    while not is_odd_hole(adj, current):  # an odd hole is minimal already
         candidates = [v for v in current if v not in needed]
         if not candidates:
             break
@@ -113,4 +132,6 @@ def is_minimal_obstruction(adj: list[set[int]], items: Iterable[int]) -> bool:
     items = list(items)
     if _orientable(adj, items)[0]:
         return False
+    if is_odd_hole(adj, items):
+        return True
     return all(_orientable(adj, items[:k] + items[k + 1:])[0] for k in range(len(items)))
