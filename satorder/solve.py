@@ -60,17 +60,21 @@ def _dedup(core: list[dict]) -> list[dict]:
 def verify(answer: Answer) -> Answer:
     """Run the independent checks on an answer; raises CertificateError on failure."""
     t0 = time.perf_counter()
+    checked = False
     if answer.status == FEASIBLE:
         certify.check_order(answer.problem, answer.succ)
+        checked = True
         if answer.cost is not None:
             from .certify_prefer import check_cost
 
             check_cost(answer.problem, answer.succ, answer.cost, answer.unmet)
     elif answer.status == INFEASIBLE and answer.chain is not None:
         certify.check_forcing_chain(answer.problem, answer.chain)
+        checked = True
     elif answer.status == INFEASIBLE and answer.core is not None:
         certify.check_core_infeasible(answer.problem, answer.core)
-    answer.verified = answer.status in (FEASIBLE, INFEASIBLE)
+        checked = True
+    answer.verified = checked  # an answer without a certificate is never called verified
     answer.stats["verify_seconds"] = round(time.perf_counter() - t0, 6)
     return answer
 

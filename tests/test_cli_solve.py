@@ -204,3 +204,45 @@ def test_edge_list_accepts_crlf_comments_and_unicode_names(tmp_path):
     f = write(tmp_path, "g.txt", "# festival\r\nkiln loom\r\n\r\nloom café  # note\r\n")
     p = read_problem(f)
     assert sorted(p.items) == ["café", "kiln", "loom"] and p.num_comparable == 2
+
+
+def test_compiled_transitivity_check_finds_the_same_faults():
+    # the compiled check (orders over 64 items) against the set-based one on planted faults
+    import random as _random
+
+    from satorder import certify
+    from satorder.order import transitive_closure
+
+    rnd = _random.Random(8)
+    for _ in range(40):
+        n = rnd.randint(65, 120)
+        arcs = [(a, b) for a in range(n) for b in range(a + 1, n) if rnd.random() < 0.03]
+        succ = transitive_closure(n, arcs)
+        assert certify._first_intransitive(succ) is None
+        a = rnd.choice([x for x in range(n) if succ[x]] or [0])
+        if succ[a] and any(succ[b] for b in succ[a]):
+            b = next(b for b in succ[a] if succ[b])
+            c = next(iter(succ[b]))
+            succ[a].discard(c)
+            x, y, z = certify._first_intransitive(succ)
+            assert y in succ[x] and z in succ[y] and z not in succ[x]
+        else:
+            succ[a].add(a)
+            assert certify._first_intransitive(succ) == (a, a, a)
+
+
+def test_atomic_write_follows_umask_and_keeps_existing_mode(tmp_path):
+    from satorder.cli.common import atomic_write
+
+    old = os.umask(0o022)
+    try:
+        new = tmp_path / "new.json"
+        atomic_write(str(new), "x")
+        assert (new.stat().st_mode & 0o777) == 0o644
+        kept = tmp_path / "kept.json"
+        kept.write_text("old")
+        kept.chmod(0o640)
+        atomic_write(str(kept), "new")
+        assert kept.read_text() == "new" and (kept.stat().st_mode & 0o777) == 0o640
+    finally:
+        os.umask(old)
