@@ -161,3 +161,22 @@ def test_minimality_check_rejects_non_minimal_sets():
     assert not is_minimal_obstruction(p.adj, [idx[str(v)] for v in range(4)])
     for pair in itertools.combinations(range(5), 2):
         assert not is_minimal_obstruction(p.adj, [idx[str(v)] for v in pair])
+
+
+def test_odd_hole_recognition():
+    from satorder.obstruction import is_odd_hole
+
+    def holes(g, items):
+        p = Problem.from_networkx(g)
+        return is_odd_hole(p.adj, [p.index[str(v)] for v in items])
+
+    assert holes(nx.cycle_graph(7), range(7))
+    assert not holes(nx.cycle_graph(6), range(6))  # even
+    chord = nx.cycle_graph(7)
+    chord.add_edge(0, 3)
+    assert not holes(chord, range(7))  # a chord
+    two = nx.disjoint_union(nx.cycle_graph(5), nx.cycle_graph(5))
+    assert not holes(two, range(10))  # degree 2 everywhere but two cycles (even total)
+    three = nx.disjoint_union(two, nx.cycle_graph(5))
+    assert not holes(three, range(15))  # odd total, still not one cycle
+    assert not holes(nx.cycle_graph(3), range(3))  # a triangle is orientable
