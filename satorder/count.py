@@ -55,6 +55,7 @@ class CountResult:
     reason: str = ""
     stats: dict[str, Any] = field(default_factory=dict)
     verified: bool = False
+    tree: Any = field(default=None, repr=False)  # the modular decomposition used, if any
 
     def to_json(self) -> dict[str, Any]:
         doc: dict[str, Any] = {
@@ -160,6 +161,7 @@ def _count_by_decomposition(problem: Problem) -> CountResult:
         if node.kind != LEAF:
             kinds[node.kind] += 1
     stats["nodes"] = kinds
+    result = CountResult(problem, 0, True, DECOMPOSITION, stats=stats, tree=tree)
     placed = _place_arcs(tree, arcs, problem.n)
     stats["constrained_nodes"] = len(placed)
     total = 1
@@ -170,7 +172,8 @@ def _count_by_decomposition(problem: Problem) -> CountResult:
             total *= _prime_count(adj, node, placed.get(id(node), ()))
         if total == 0:
             break
-    return CountResult(problem, total, True, DECOMPOSITION, stats=stats)
+    result.count = total
+    return result
 
 
 def _place_arcs(tree: ModuleNode, arcs, n: int) -> dict[int, list[tuple[int, int]]]:
@@ -281,6 +284,16 @@ def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int
         if result.count != 0:
             raise CertificateError(f"count is {result.count} but the problem is infeasible")
         checks.append("the solver certified that no answer exists")
+    if result.tree is not None:
+        from .certify_count import check_decomposition
+
+        implied = check_decomposition(problem.adj, result.tree)
+        if implied is not None:
+            if not (problem.fixed or problem.forbidden) and implied != result.count:
+                raise CertificateError(f"the checked decomposition implies {implied} answers, "
+                                       f"the count says {result.count}")
+            checks.append("decomposition tree checked: every child a module, node kinds, prime "
+                          "quotients with one implication class")
     if result.method == DECOMPOSITION and 0 < result.count <= recount_up_to and \
             problem.n <= recount_items:
         again = _count_by_enumeration(hard, result.count + 1, solver, None, None)

@@ -255,3 +255,44 @@ def test_cli_count_draws_the_decomposition(tmp_path, capsys):
     assert text.startswith("<svg") and text.count(">prime<") == 1
     assert all(f">{name}</text>" in text for name in "abcd")
     assert main(["count", str(path), "--draw", str(tmp_path / "tree.png")]) == 2
+
+
+def test_decomposition_check_catches_damaged_trees():
+    from satorder.certify_count import check_decomposition
+    from satorder.errors import CertificateError
+    from satorder.modular import LEAF, ModuleNode
+
+    # C4 = K_{2,2}: series of two parallel pairs, 2! orientations (common practice)
+    c4 = [{1, 3}, {0, 2}, {1, 3}, {0, 2}]
+    tree = modular_decomposition(c4)
+    assert check_decomposition(c4, tree) == 2
+
+    def leaf(i):
+        return ModuleNode(LEAF, item=i)
+
+    wrong_kind = ModuleNode("parallel", tree.children)
+    not_modules = ModuleNode("series", [ModuleNode("parallel", [leaf(0), leaf(1)]),
+                                        ModuleNode("parallel", [leaf(2), leaf(3)])])
+    missing = ModuleNode("series", [ModuleNode("parallel", [leaf(0), leaf(2)]), leaf(1)])
+    for bad in (wrong_kind, not_modules, missing):
+        with pytest.raises(CertificateError):
+            check_decomposition(c4, bad)
+    # P4 claimed prime over its items is right (2 orientations); P4 plus a true twin of an end
+    # claimed prime over all five items is wrong: the twins form a module with an edge
+    p4 = [{1}, {0, 2}, {1, 3}, {2}]
+    assert check_decomposition(p4, ModuleNode("prime", [leaf(i) for i in range(4)])) == 2
+    twin = [{1, 4}, {0, 2, 4}, {1, 3}, {2}, {0, 1}]
+    with pytest.raises(CertificateError):
+        check_decomposition(twin, ModuleNode("prime", [leaf(i) for i in range(5)]))
+
+
+def test_decomposition_check_agrees_with_brute_force():
+    from satorder.certify_count import check_decomposition
+
+    for n in (4, 5):
+        for edges in graphs(n):
+            p = plain(n, edges)
+            if not edges or count_answers(p).count == 0:
+                continue
+            assert check_decomposition(p.adj, modular_decomposition(p.adj)) == \
+                count_orientations(n, list(p.comparable_pairs()))
