@@ -82,6 +82,10 @@ class Explanation:
     verified: bool = False
     stats: dict[str, Any] = field(default_factory=dict)
 
+    def involved_items(self) -> list[int]:
+        """Items named by the core or the obstruction."""
+        return sorted({v for r in self.core or () for v in r["pair"]} | set(self.obstruction or ()))
+
     def core_json(self) -> list[dict]:
         names = self.problem.items
         return [{"kind": r["kind"], "pair": [names[r["pair"][0]], names[r["pair"][1]]]}

@@ -62,7 +62,7 @@ def explanation_svg(expl, title: str | None = None) -> str:
     names = p.items
     core = expl.core or []
     ob = set(expl.obstruction or ())
-    items = sorted({v for r in core for v in r["pair"]} | ob)
+    items = expl.involved_items()
     if len(items) > MAX_ITEMS:
         raise ValueError(f"{len(items)} items are too many to draw legibly (limit {MAX_ITEMS})")
     order = _walk_order(items, core)

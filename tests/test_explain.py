@@ -428,3 +428,13 @@ def test_minimality_witness_checker_rejects_bad_witnesses():
     with pytest.raises(CertificateError):  # a requirement the problem does not have
         check_minimality_witnesses(p, core + [{"kind": "forbidden", "pair": (2, 0)}],
                                    {**good, 3: [(0, 1)]})
+
+
+def test_cli_refuses_an_illegible_picture_but_still_explains(tmp_path, capsys):
+    path = str(tmp_path / "ring.txt")
+    nx.write_edgelist(nx.cycle_graph(101), path, data=False)
+    svg = tmp_path / "why.svg"
+    assert main(["explain", path, "--json", "--draw", str(svg)]) == 0
+    captured = capsys.readouterr()
+    assert json.loads(captured.out)["status"] == "infeasible"
+    assert "no picture" in captured.err and not svg.exists()

@@ -4,7 +4,7 @@ step-by-step derivation, an obstruction, and repairs."""
 from __future__ import annotations
 
 from ..explain import explain
-from ..explain_picture import explanation_svg
+from ..explain_picture import MAX_ITEMS, explanation_svg
 from ..render_explain import print_explanation
 from .common import (
     UsageError,
@@ -45,15 +45,20 @@ def run(args) -> int:
         expl = explain(problem, smallest=args.smallest, repairs=args.repairs,
                        time_limit=args.time_limit,
                        progress=lambda stage: status.update(f"explaining: {stage}…"))
+    drawn = False
     if args.draw:
-        if expl.status == "infeasible":
-            atomic_write(args.draw, explanation_svg(expl, title=None))
-        else:
+        if expl.status != "infeasible":
             err.print(f"satorder: nothing to draw: the problem is {expl.status}", markup=False)
+        elif len(expl.involved_items()) > MAX_ITEMS:
+            err.print(f"satorder: no picture: the core spans {len(expl.involved_items())} items, "
+                      f"more than the {MAX_ITEMS} a legible picture can hold", markup=False)
+        else:
+            atomic_write(args.draw, explanation_svg(expl))
+            drawn = True
     if args.json:
         print_json(expl.to_json())
     else:
         print_explanation(expl, out, file=args.file)
-        if args.draw and expl.status == "infeasible":
+        if drawn:
             out.print(f"Picture written to {args.draw}")
     return 3 if expl.status == "unknown" else 0
