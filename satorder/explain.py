@@ -86,6 +86,13 @@ class Explanation:
         """Items named by the core or the obstruction."""
         return sorted({v for r in self.core or () for v in r["pair"]} | set(self.obstruction or ()))
 
+    def obstruction_graph(self):
+        """The subgraph the obstruction induces, as a networkx graph on item names."""
+        if self.obstruction is None:
+            return None
+        names = self.problem.items
+        return self.problem.to_networkx().subgraph(names[v] for v in self.obstruction).copy()
+
     def core_json(self) -> list[dict]:
         names = self.problem.items
         return [{"kind": r["kind"], "pair": [names[r["pair"][0]], names[r["pair"][1]]]}
@@ -483,11 +490,14 @@ def explain(
 ) -> Explanation:
     """Explain why ``problem`` admits no order (or say that it does).
 
-    ``smallest`` asks for a minimum-cardinality core; ``repairs`` for up to that many minimal
-    correction sets.  ``forcing_result`` may pass the forcing algorithm's outcome on
-    ``problem.adj`` when the caller already has it.  ``progress(text)`` is called before each
-    stage.
+    ``problem`` may also be an undirected networkx graph (its edges the comparable pairs, every
+    other pair to stay unordered).  ``smallest`` asks for a minimum-cardinality core;
+    ``repairs`` for up to that many minimal correction sets.  ``forcing_result`` may pass the
+    forcing algorithm's outcome on ``problem.adj`` when the caller already has it.
+    ``progress(text)`` is called before each stage.
     """
+    if not isinstance(problem, Problem):
+        problem = Problem.from_networkx(problem)
     say = progress or (lambda text: None)
     t0 = time.perf_counter()
     stats: dict[str, Any] = {}

@@ -438,3 +438,14 @@ def test_cli_refuses_an_illegible_picture_but_still_explains(tmp_path, capsys):
     captured = capsys.readouterr()
     assert json.loads(captured.out)["status"] == "infeasible"
     assert "no picture" in captured.err and not svg.exists()
+
+
+def test_explain_accepts_a_networkx_graph_and_returns_the_obstruction_as_one():
+    # the wheel W5: a hub joined to every item of a 5-cycle.  C5 has no transitive orientation
+    # (Golumbic 1980, ch. 5); an item joined to all others can always sit above them all, so it
+    # never belongs to a minimal obstruction: the obstruction is the rim
+    g = nx.wheel_graph(6)  # hub 0, rim 1..5
+    e = explain(g)
+    sub = e.obstruction_graph()
+    assert nx.is_isomorphic(sub, nx.cycle_graph(5))
+    assert sorted(sub.nodes) == ["1", "2", "3", "4", "5"]
