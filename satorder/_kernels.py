@@ -7,24 +7,34 @@ twins are used, slower but with identical results.
 
 from __future__ import annotations
 
+import importlib.util
+
 import numpy as np
 
-try:  # pragma: no cover - exercised implicitly
-    from numba import njit
-
-    HAVE_NUMBA = True
-except ImportError:  # pragma: no cover
-    HAVE_NUMBA = False
-
-    def njit(*args, **kwargs):
-        def wrap(f):
-            return f
-
-        return wrap
+HAVE_NUMBA = importlib.util.find_spec("numba") is not None
+_compiled: dict = {}
 
 
-@njit(cache=True)
-def co_component_ties(indptr, indices):  # pragma: no cover - compiled
+def compiled(name: str):
+    """The numba-compiled version of kernel ``name`` (compiled or loaded from the on-disk cache
+    on first use, so that importing satorder stays quick)."""
+    fn = _compiled.get(name)
+    if fn is None:
+        from numba import njit
+
+        fn = _compiled[name] = njit(cache=True)(globals()["_" + name])
+    return fn
+
+
+def co_component_ties(indptr, indices):
+    return compiled("co_component_ties")(indptr, indices)
+
+
+def doubled_components(m, e1, e2, flip):
+    return compiled("doubled_components")(m, e1, e2, flip)
+
+
+def _co_component_ties(indptr, indices):  # pragma: no cover - compiled
     """For each item v, the connected components of the complement of ``G[N(v)]``.
 
     Classical complement breadth-first search with an "unreached" list: popping ``y`` marks its
@@ -97,20 +107,7 @@ def csr(adj: list[set[int]]):
     return indptr, indices
 
 
-@njit(cache=True)
-def _find(parent, x):  # pragma: no cover - compiled
-    root = x
-    while parent[root] != root:
-        root = parent[root]
-    while parent[x] != root:
-        nxt = parent[x]
-        parent[x] = root
-        x = nxt
-    return root
-
-
-@njit(cache=True)
-def doubled_components(m, e1, e2, flip):  # pragma: no cover - compiled
+def _doubled_components(m, e1, e2, flip):  # pragma: no cover - compiled
     """Connected components of the doubled tie graph (union-find, path compression).
 
     Node ``2e`` is edge e oriented lo→hi, ``2e+1`` the reverse; a tie between edges e1 and e2
@@ -119,20 +116,32 @@ def doubled_components(m, e1, e2, flip):  # pragma: no cover - compiled
     """
     size = 2 * m
     parent = np.arange(size)
-    for i in range(len(e1)):
-        for a, b in ((2 * e1[i], 2 * e2[i] + flip[i]), (2 * e1[i] + 1, 2 * e2[i] + 1 - flip[i])):
-            ra = _find(parent, a)
-            rb = _find(parent, b)
-            if ra != rb:
-                if ra < rb:
-                    parent[rb] = ra
-                else:
-                    parent[ra] = rb
+    for i in range(2 * len(e1)):
+        j = i // 2
+        if i % 2 == 0:
+            a, b = 2 * e1[j], 2 * e2[j] + flip[j]
+        else:
+            a, b = 2 * e1[j] + 1, 2 * e2[j] + 1 - flip[j]
+        ra = a  # find with path halving, written inline (kernels call no other kernels)
+        while parent[ra] != ra:
+            parent[ra] = parent[parent[ra]]
+            ra = parent[ra]
+        rb = b
+        while parent[rb] != rb:
+            parent[rb] = parent[parent[rb]]
+            rb = parent[rb]
+        if ra != rb:
+            if ra < rb:
+                parent[rb] = ra
+            else:
+                parent[ra] = rb
     label = np.full(size, -1, dtype=np.int64)
     comp = np.empty(size, dtype=np.int64)
     k = 0
     for x in range(size):
-        r = _find(parent, x)
+        r = x
+        while parent[r] != r:
+            r = parent[r]
         if label[r] < 0:
             label[r] = k
             k += 1

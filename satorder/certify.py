@@ -14,21 +14,17 @@ message naming the offending items.
 
 from __future__ import annotations
 
+import importlib.util
 from itertools import chain
 
 import numpy as np
 
 from .errors import CertificateError
 
-try:  # compiled inner loop for large orders; written here, separately from any engine
-    from numba import njit
-
-    _HAVE_NUMBA = True
-except ImportError:  # pragma: no cover
-    _HAVE_NUMBA = False
-
-    def njit(*args, **kwargs):
-        return lambda f: f
+# a compiled inner loop for large orders, written here separately from any engine; numba is
+# imported on first use so that importing satorder stays quick
+_HAVE_NUMBA = importlib.util.find_spec("numba") is not None
+_kernel = None
 
 
 def _first_intransitive(succ: list[set[int]]):
@@ -40,7 +36,12 @@ def _first_intransitive(succ: list[set[int]]):
         indptr = np.zeros(n + 1, dtype=np.int64)
         np.cumsum(deg, out=indptr[1:])
         indices = np.fromiter(chain.from_iterable(succ), dtype=np.int64, count=int(indptr[-1]))
-        a, b, c = _intransitive_kernel(indptr, indices)
+        global _kernel
+        if _kernel is None:
+            from numba import njit
+
+            _kernel = njit(cache=True)(_intransitive_kernel)
+        a, b, c = _kernel(indptr, indices)
         return None if a < 0 else (int(a), int(b), int(c))
     for a in range(n):
         sa = succ[a]
@@ -54,7 +55,6 @@ def _first_intransitive(succ: list[set[int]]):
     return None
 
 
-@njit(cache=True)
 def _intransitive_kernel(indptr, indices):  # pragma: no cover - compiled
     n = len(indptr) - 1
     mark = np.full(n, -1, dtype=np.int64)

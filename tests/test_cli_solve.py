@@ -101,9 +101,11 @@ BAD = [
 
 
 @pytest.mark.parametrize("name,content,needle", BAD, ids=[b[0] for b in BAD])
-def test_bad_input_gives_one_line_and_exit_2(tmp_path, name, content, needle):
+def test_bad_input_gives_one_line_and_exit_2(tmp_path, capsys, name, content, needle):
+    # in-process for speed; test_binary_and_missing_files covers the real process exit codes
     f = write(tmp_path, name, content)
-    code, out, err = run("solve", f, "--json")
+    code = main(["solve", f, "--json"])
+    out, err = capsys.readouterr()
     assert code == 2
     assert out == ""
     assert "Traceback" not in err
@@ -119,20 +121,28 @@ def test_binary_and_missing_files(tmp_path):
     assert code == 2 and "no such file" in err
 
 
-def test_failed_run_leaves_existing_output_untouched(tmp_path):
+def test_failed_run_leaves_existing_output_untouched(tmp_path, capsys):
     target = tmp_path / "answer.json"
     target.write_text("precious")
     f = write(tmp_path, "bad.json", "{")
-    code, _, _ = run("solve", f, "--out", str(target))
+    code = main(["solve", f, "--out", str(target)])
     assert code == 2 and target.read_text() == "precious"
 
 
-def test_usage_errors_exit_2(tmp_path):
-    assert run("solve")[0] == 2
-    assert run("frobnicate")[0] == 2
+def _exit_code(argv) -> int:
+    try:
+        return main(argv)
+    except SystemExit as exc:  # argparse usage errors
+        return exc.code
+
+
+def test_usage_errors_exit_2(tmp_path, capsys):
+    assert run("solve")[0] == 2  # one real process for the argparse path
+    assert _exit_code(["frobnicate"]) == 2
     f = write(tmp_path, "g.txt", "a b\n")
-    assert run("solve", f, "--engine", "magic")[0] == 2
-    assert run("solve", f, "--out", f)[0] == 2  # would overwrite the input
+    assert _exit_code(["solve", f, "--engine", "magic"]) == 2
+    assert _exit_code(["solve", f, "--out", f]) == 2  # would overwrite the input
+    assert "overwrite" in capsys.readouterr().err
 
 
 def test_in_process_main_returns_codes(tmp_path, capsys):
