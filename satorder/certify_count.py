@@ -100,8 +100,7 @@ def check_decomposition(adj: list[set[int]], tree, budget: int = 30_000_000) -> 
                 raise CertificateError("a parallel node has two adjacent children")
         elif node.kind == "prime":
             q = [set(s) for s in sees]
-            if k < 4 or not _connected(q) or not _connected([set(range(k)) - s - {i}
-                                                             for i, s in enumerate(q)]):
+            if k < 4 or not _connected(q) or not _co_connected(q):
                 raise CertificateError("a prime node's quotient is disconnected, co-disconnected "
                                        "or too small")
             res = transitive_orientation(q)
@@ -125,3 +124,16 @@ def _connected(adj: list[set[int]]) -> bool:
                 seen.add(u)
                 todo.append(u)
     return len(seen) == len(adj)
+
+
+def _co_connected(adj: list[set[int]]) -> bool:
+    """Whether the complement is connected: breadth-first search in the complement, scanning
+    the unvisited set and skipping neighbours (linear in items plus pairs)."""
+    unvisited = set(range(1, len(adj)))
+    todo = [0]
+    while todo and unvisited:
+        nb = adj[todo.pop()]
+        found = [u for u in unvisited if u not in nb]
+        unvisited.difference_update(found)
+        todo.extend(found)
+    return not unvisited
