@@ -75,7 +75,7 @@ def _instances(work: str, quick: bool) -> dict[str, str]:
             p, items=50_000 // scale, pairs=1_000_000 // scale, seed=1),
         "dense-orders": lambda p: generate.write_dense_orders(p, blocks=500 // scale, seed=2),
         "dense-orders+5-cycle": lambda p: generate.write_dense_orders(
-            p, blocks=500 // scale, seed=3, plant_hole=True, joins=5),
+            p, blocks=500 // scale, seed=3, plant_hole=True, joins=3),
     }
     paths = {}
     for name, make in specs.items():

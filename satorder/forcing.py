@@ -43,6 +43,7 @@ import numpy as np
 from . import _kernels
 
 Arc = tuple[int, int]
+CHAIN_TRIES = 8  # conflicting edges tried as chain starts; the shortest chain is kept
 
 
 @dataclass
@@ -165,7 +166,12 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     c1 = comp[1::2]
     bad = np.flatnonzero(c0 == c1)
     if len(bad):
-        chain = _conflict_chain(adj, _tie_graph(m, e1, e2, fl), int(bad[0]), lo, hi)
+        # short certificates: try the conflicting edges whose ends have the fewest neighbours
+        # (a planted odd hole's own edges rather than the big class it may be joined to)
+        deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
+        picks = bad[np.argsort(deg[lo[bad]] + deg[hi[bad]], kind="stable")[:CHAIN_TRIES]]
+        graph = _tie_graph(m, e1, e2, fl)
+        chain = min((_conflict_chain(adj, graph, int(e), lo, hi) for e in picks), key=len)
         return ForcingResult(n, False, lo, hi, None, ncomp // 2, chain)
     # orient each class: keep the direction whose smallest tail < smallest head
     big = np.iinfo(np.int64).max
