@@ -43,6 +43,13 @@ Interface (stable; explain, count, MaxSAT and benchmark code build on it)
 * ``decode(model)`` → successor sets of the ordered pairs true in the model (a relation,
   transitively closed once ``violations`` finds nothing); ``violations(succ)`` → violated
   triples ``(a, b, c)``; ``refine(triples)`` → adds their clauses, returns how many.
+* ``pair_literals()`` → ``(a, b, lit a<b, lit b<a)`` for every pair with variables;
+  ``has_pair(a, b)``; ``num_classes`` → implication classes merged; ``phase_hints`` → preferred
+  literals for a solver's phases (comparable pairs upwards by id, other pairs unordered).
+* ``unsat_reason`` → requirement keys of an implication class holding an arc and its reverse
+  (the CNF then holds the empty clause); ``origin[k]`` → why clause ``hard[k]`` is there;
+  ``requirements_behind(clause_ids)`` → requirements implying those clauses (cores without
+  selectors: see :mod:`satorder.sat`).
 * ``to_dimacs()`` → DIMACS CNF text with ``c`` lines naming each variable and selector.
 
 >>> from satorder.problem import Problem
