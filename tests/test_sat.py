@@ -200,6 +200,32 @@ def test_random_side_constraints_and_open_pairs_match_brute_force():
     assert min(seen.values()) > 40  # both verdicts well represented
 
 
+@settings(max_examples=120, deadline=None)
+@given(st.integers(min_value=2, max_value=4).flatmap(lambda n: st.tuples(
+    st.just(n),
+    st.lists(st.sampled_from(["comparable", "incomparable", "open"]),
+             min_size=n * (n - 1) // 2, max_size=n * (n - 1) // 2),
+    st.lists(st.tuples(st.integers(0, n - 1), st.integers(0, n - 1), st.booleans()),
+             max_size=4))))
+def test_hypothesis_side_constraints_match_brute_force(data):
+    n, states, arcs = data
+    b = ProblemBuilder("<hypothesis>")
+    names = [f"i{k}" for k in range(n)]
+    for x in names:
+        b.item(x, "items")
+    b.incomparable_list()
+    for (x, y), state in zip(itertools.combinations(names, 2), states):
+        if state != "open":
+            getattr(b, state)(x, y, state)
+    for x, y, fix in arcs:
+        try:
+            (b.fixed if fix else b.forbidden)(names[x], names[y], "arc")
+        except InputError:
+            pass  # e.g. an arc from an item to itself, or on a pair that must stay unordered
+    p = b.build()
+    _agree(p, brute_force_feasible(p))
+
+
 def test_selector_session_agrees_and_cores_are_minimal():
     rnd = random.Random(8)
     for _ in range(120):
