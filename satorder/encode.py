@@ -381,13 +381,16 @@ class Encoding:
         everyone = set(range(n))
         return [everyone - p.incomparable[a] - {a} for a in range(n)]
 
-    def add_all_transitivity(self) -> int:
+    def add_all_transitivity(self, progress=None) -> int:
         """Write every transitivity clause for triples ``a, b, c`` with ``ab`` and ``bc`` both
-        orderable (each once after collapsing; tautologies and repeats dropped)."""
+        orderable (each once after collapsing; tautologies and repeats dropped).
+        ``progress(done, total)`` is called after each middle item ``b``."""
         nbr = self.orderable_neighbours()
         seen: set[tuple[int, ...]] = set()
         count = 0
         for b in range(self.n):
+            if progress is not None:
+                progress(b, self.n)
             around = sorted(nbr[b])
             for i, a in enumerate(around):
                 for c in around[i + 1:]:

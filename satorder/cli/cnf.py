@@ -12,7 +12,7 @@ from __future__ import annotations
 import sys
 
 from ..encode import Encoding
-from .common import atomic_write, check_output_path, load
+from .common import atomic_write, check_output_path, err, load
 
 
 def add_parser(sub):
@@ -26,8 +26,14 @@ def add_parser(sub):
 
 
 def cnf_text(problem, selectors: bool = False) -> str:
-    """DIMACS text of the complete (eager) encoding of ``problem``."""
-    enc = Encoding(problem, selectors=selectors, lazy=False)
+    """DIMACS text of the complete (eager) encoding of ``problem``, with a progress bar on
+    standard error while the transitivity clauses are written."""
+    from rich.progress import Progress
+
+    enc = Encoding(problem, selectors=selectors, lazy=True)
+    with Progress(console=err, transient=True) as bar:
+        task = bar.add_task("transitivity clauses", total=problem.n)
+        enc.add_all_transitivity(progress=lambda done, total: bar.update(task, completed=done))
     return enc.to_dimacs()
 
 
