@@ -5,10 +5,14 @@ Method: a CDCL solver (CaDiCaL 1.9.5 by default; Biere et al., SAT Competition 2
 descriptions) decides the compact CNF of :mod:`satorder.encode`; each model is decoded into a
 relation, and every transitivity clause the relation violates is added before solving again
 (lazy clause generation, common practice for order encodings) until the model is a strict
-partial order.  Infeasible problems get a *core*: the requirements whose selector literals the
-solver used to refute the formula (assumption-based core extraction, Eén & Sörensson, "An
-extensible SAT-solver", SAT 2003), shrunk by clause-set refinement and deletion
-(Marques-Silva, Janota & Belov, CAV 2013) while time allows.
+partial order.  Infeasible problems get a *core* of requirements, found in three ways, cheapest
+first: an implication class holding an arc and its reverse names its Γ chain; otherwise each
+clause of the refuted CNF is guarded by a literal and the solver's core over those literals
+(assumption-based core extraction, Eén & Sörensson, "An extensible SAT-solver", SAT 2003) is
+mapped to the requirements behind its clauses; only if that fails is the problem re-encoded
+with one selector per requirement.  The candidate is then shrunk on the small problem made of
+its requirements alone, by clause-set refinement and deletion (Marques-Silva, Janota & Belov,
+CAV 2013) while time allows (``stats["core"]["minimal"]`` says whether it finished).
 
 Interface (stable)
 ------------------
