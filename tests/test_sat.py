@@ -4,11 +4,10 @@ from __future__ import annotations
 
 import itertools
 import random
-from functools import cache
 
 import networkx as nx
 import pytest
-from conftest import all_graphs
+from conftest import all_graphs, all_posets
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -19,24 +18,6 @@ from satorder.sat import SatSession, find_core, resolve_solver, solve_sat
 from satorder.solve import solve, solve_forcing, verify
 
 # ---------------------------------------------------------------------- brute force
-
-
-@cache
-def all_posets(n: int) -> tuple[frozenset, ...]:
-    """Every strict partial order on items 0..n-1 as a frozenset of arcs (brute force: each
-    pair unordered / one way / the other, keep the transitive ones)."""
-    pairs = list(itertools.combinations(range(n), 2))
-    out = []
-    for states in itertools.product((0, 1, 2), repeat=len(pairs)):
-        arcs = set()
-        for (a, b), s in zip(pairs, states):
-            if s == 1:
-                arcs.add((a, b))
-            elif s == 2:
-                arcs.add((b, a))
-        if all((a, d) in arcs for a, b in arcs for c, d in arcs if b == c):
-            out.append(frozenset(arcs))
-    return tuple(out)
 
 
 def test_poset_enumeration_matches_oeis():
@@ -302,11 +283,13 @@ def test_solver_names():
         resolve_solver("no-such-solver")
 
 
-def _hard_problem(n: int = 70, seed: int = 1) -> Problem:
-    """Random open-pair problem (no hidden answer) dense enough that no solver finishes
-    in a few milliseconds."""
-    rnd = random.Random(seed)
-    return random_problem(rnd, n, others=False)
+def _hard_problem() -> Problem:
+    """A dense open-pair problem (generated, feasible) that needs many lazy rounds: no solver
+    finishes it within a millisecond."""
+    from satorder.generate import open_pairs
+    from satorder.readers import problem_from_dict
+
+    return problem_from_dict(open_pairs(200, seed=1, degree=20.0).to_dict())
 
 
 @pytest.mark.parametrize("solver", ["cadical195", "glucose4"])
