@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import functools
 import itertools
 
 import networkx as nx
@@ -31,6 +32,24 @@ def brute_force_orientable(g: nx.Graph) -> bool:
         if all((a, c) in arcs for a, b in arcs for c in succ.get(b, ())):
             return True
     return False
+
+
+@functools.cache
+def all_posets(n: int) -> tuple[frozenset, ...]:
+    """Every strict partial order on items 0..n-1 as a frozenset of arcs (brute force: each
+    pair unordered / one way / the other, keep the transitive ones)."""
+    pairs = list(itertools.combinations(range(n), 2))
+    out = []
+    for states in itertools.product((0, 1, 2), repeat=len(pairs)):
+        arcs = set()
+        for (a, b), s in zip(pairs, states):
+            if s == 1:
+                arcs.add((a, b))
+            elif s == 2:
+                arcs.add((b, a))
+        if all((a, d) in arcs for a, b in arcs for c, d in arcs if b == c):
+            out.append(frozenset(arcs))
+    return tuple(out)
 
 
 @pytest.fixture

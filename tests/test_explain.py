@@ -3,7 +3,6 @@ partial order on a handful of items."""
 
 from __future__ import annotations
 
-import functools
 import itertools
 import json
 import random
@@ -11,6 +10,7 @@ import random
 import networkx as nx
 import numpy as np
 import pytest
+from conftest import all_posets
 
 from satorder import Problem, certify
 from satorder.cli.main import main
@@ -19,29 +19,6 @@ from satorder.errors import CertificateError
 from satorder.explain import explain, requirements
 from satorder.mus import RequirementOracle, minimal_core
 from satorder.replay import check_derivation
-
-
-@functools.cache
-def all_posets(n: int) -> tuple[frozenset, ...]:
-    """Every strict partial order on items 0..n-1, as frozensets of arcs (brute force: each
-    pair below, above or unordered, kept when transitive)."""
-    pairs = list(itertools.combinations(range(n), 2))
-    out = []
-    for choice in itertools.product((0, 1, 2), repeat=len(pairs)):
-        arcs = set()
-        for (a, b), c in zip(pairs, choice):
-            if c == 1:
-                arcs.add((a, b))
-            elif c == 2:
-                arcs.add((b, a))
-        if all((a, d) in arcs for a, b in arcs for c, d in arcs if b == c):
-            out.append(frozenset(arcs))
-    return tuple(out)
-
-
-def test_brute_force_poset_counts_match_oeis():
-    # OEIS A001035: labelled posets on n items are 1, 1, 3, 19, 219, 4231 for n = 0..5
-    assert [len(all_posets(n)) for n in range(6)] == [1, 1, 3, 19, 219, 4231]
 
 
 def meets(arcs, r) -> bool:
