@@ -233,8 +233,8 @@ class SatSession:
                 box["exc"] = exc
 
         worker = threading.Thread(target=work, daemon=True)
-        worker.start()
         try:
+            worker.start()
             while worker.is_alive():
                 left = deadline - time.monotonic()
                 if left <= 0:
@@ -244,7 +244,8 @@ class SatSession:
                 worker.join(min(left, 0.05))
         except KeyboardInterrupt:
             s.interrupt()
-            worker.join()
+            if worker.is_alive() or worker.ident is not None:
+                worker.join()
             s.clear_interrupt()
             raise
         s.clear_interrupt()
