@@ -26,21 +26,23 @@ def compiled(name: str):
     return fn
 
 
-def co_component_ties(indptr, indices):
-    return compiled("co_component_ties")(indptr, indices)
+def co_component_ties(indptr, indices, uindptr, uindices, explicit):
+    return compiled("co_component_ties")(indptr, indices, uindptr, uindices, explicit)
 
 
 def doubled_components(m, e1, e2, flip):
     return compiled("doubled_components")(m, e1, e2, flip)
 
 
-def _co_component_ties(indptr, indices):  # pragma: no cover - compiled
-    """For each item v, the connected components of the complement of ``G[N(v)]``.
+def _co_component_ties(indptr, indices, uindptr, uindices, explicit):  # pragma: no cover
+    """For each item v, a spanning forest of the pairs of ``N(v)`` that must stay unordered:
+    the non-adjacent pairs, or with ``explicit`` the pairs listed in the CSR (uindptr, uindices).
 
-    Classical complement breadth-first search with an "unreached" list: popping ``y`` marks its
-    neighbours, and every unreached item left unmarked is a non-neighbour of ``y``, hence joins
-    the component.  Work is ``sum over y in N(v) of deg(y)`` per centre v.
-    Returns arrays (v, r, x): edges {v, r} and {v, x} are tied (same direction at v).
+    Breadth-first search with an "unreached" list: popping ``y`` marks its neighbours (or its
+    must-stay-unordered partners), and every unreached item left unmarked (or marked) joins the
+    tree below ``y``.  Work is ``sum over y in N(v) of deg(y)`` per centre v.
+    Returns arrays (v, y, x): {y, x} must stay unordered, so arcs at v of {v, y} and {v, x}
+    are oriented alike (a Γ step).
     """
     n = len(indptr) - 1
     total = indptr[n]
@@ -74,21 +76,27 @@ def _co_component_ties(indptr, indices):  # pragma: no cover - compiled
                 y = queue[qh]
                 qh += 1
                 stamp += 1
-                for t in range(indptr[y], indptr[y + 1]):
-                    w = indices[t]
-                    if in_nb[w] == v:
-                        mark[w] = stamp
+                if explicit:
+                    for t in range(uindptr[y], uindptr[y + 1]):
+                        w = uindices[t]
+                        if in_nb[w] == v:
+                            mark[w] = stamp
+                else:
+                    for t in range(indptr[y], indptr[y + 1]):
+                        w = indices[t]
+                        if in_nb[w] == v:
+                            mark[w] = stamp
                 keep = 0
                 for i in range(cnt):
                     x = unreached[i]
-                    if mark[x] == stamp:
+                    if (mark[x] == stamp) != explicit:
                         unreached[keep] = x
                         keep += 1
                     else:
                         queue[qt] = x
                         qt += 1
                         out_v[k] = v
-                        out_r[k] = r
+                        out_r[k] = y
                         out_x[k] = x
                         k += 1
                 cnt = keep

@@ -66,9 +66,9 @@ from collections.abc import Iterable, Iterator
 from itertools import chain, islice
 
 import numpy as np
-from scipy.sparse import coo_matrix
 from scipy.sparse.csgraph import breadth_first_order, connected_components
 
+from .forcing import implication_ties, tie_graph
 from .problem import Problem
 
 Arc = tuple[int, int]
@@ -215,20 +215,14 @@ class Encoding:
         of each comparable pair and whose links are single Γ steps."""
         p = self.problem
         n = self.n
-        edges = list(p.comparable_pairs())
+        lo, hi, _, src, dst, fl = implication_ties(p.adj, p.incomparable)
+        edges = list(zip(lo.tolist(), hi.tolist()))
         m = len(edges)
         if m == 0:
             return
         eid = {a * n + b: k for k, (a, b) in enumerate(edges)}
-        e1, e2, flip = _gamma_ties(p, eid)
-        src = np.asarray(e1, dtype=np.int64)
-        dst = np.asarray(e2, dtype=np.int64)
-        fl = np.asarray(flip, dtype=np.int64)
         # node 2e: edge e as lo<hi; node 2e+1: hi<lo
-        rows = np.concatenate([2 * src, 2 * src + 1])
-        cols = np.concatenate([2 * dst + fl, 2 * dst + 1 - fl])
-        graph = coo_matrix((np.ones(len(rows), dtype=np.int8), (rows, cols)),
-                           shape=(2 * m, 2 * m)).tocsr()
+        graph = tie_graph(m, src, dst, fl)
         _, comp = connected_components(graph, directed=False)
         self._ties = (graph, edges, eid)  # kept to explain refutations (requirements_behind)
         c0, c1 = comp[0::2], comp[1::2]
@@ -549,38 +543,6 @@ def _violations_matrix(succ: list[set[int]], limit: int | None):
         b_idx = np.argmax(rb[aa] & rb[:, cc].T, axis=1)
         out.extend(zip(aa.tolist(), b_idx.tolist(), cc.tolist()))
     return out
-
-
-def _gamma_ties(p: Problem, eid: dict[int, int]):
-    """Spanning Γ steps: around each item v, a spanning forest of the pairs of neighbours that
-    must stay unordered (Golumbic 1980, ch. 5).  Returns parallel lists (e1, e2, flip): arcs at
-    v of edges e1 and e2 are oriented alike; ``flip`` when that means opposite lo<hi senses."""
-    n = p.n
-    adj = p.adj
-    incomp = p.incomparable
-    e1: list[int] = []
-    e2: list[int] = []
-    flip: list[int] = []
-    for v in range(n):
-        nb = adj[v]
-        if len(nb) < 2:
-            continue
-        unvisited = set(nb)
-        while unvisited:
-            queue = [unvisited.pop()]
-            for y in queue:
-                found = unvisited - adj[y] if incomp is None else unvisited & incomp[y]
-                if not found:
-                    continue
-                unvisited -= found
-                queue.extend(found)
-                ey = eid[v * n + y] if v < y else eid[y * n + v]
-                vy = v < y
-                for x in found:
-                    e1.append(ey)
-                    e2.append(eid[v * n + x] if v < x else eid[x * n + v])
-                    flip.append(int(vy != (v < x)))
-    return e1, e2, flip
 
 
 def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key] | None:

@@ -99,50 +99,65 @@ def _edge_arrays(adj: list[set[int]]):
     return key // n, key % n, key
 
 
-def _co_components_py(adj: list[set[int]]):
-    """For each item v, the connected components of the complement of ``G[N(v)]``.
-
-    Breadth-first search in the complement, one frontier at a time: the items of ``N(v)`` not
-    yet reached that are adjacent to *every* frontier item stay unreached; all others join.
-    Yields flat lists (centre v, root r, member x) meaning: edges {v, r} and {v, x} lie in one
-    co-component around v, hence in one implication class, with the same direction at v.
+def _co_components_py(adj: list[set[int]], unordered: list[set[int]] | None = None):
+    """For each item v, a spanning forest of the pairs of neighbours that must stay unordered
+    (non-neighbours, or the pairs listed in ``unordered``): breadth-first search in that
+    relation restricted to ``N(v)``.  Yields flat lists (centre v, parent y, member x): the
+    pair {y, x} must stay unordered, so arcs at v of edges {v, y} and {v, x} are Γ-related.
     """
     vs: list[int] = []
-    rs: list[int] = []
+    ys: list[int] = []
     xs: list[int] = []
-    inter = set.intersection
     for v, nb in enumerate(adj):
         if len(nb) < 2:
             continue
         unvisited = set(nb)
         while unvisited:
-            r = unvisited.pop()
-            frontier = [r]
-            members: list[int] = []
-            while frontier and unvisited:
-                stay = inter(unvisited, *[adj[y] for y in frontier])
-                frontier = list(unvisited - stay) if stay else list(unvisited)
-                unvisited = stay
-                members += frontier
-            if members:
-                k = len(members)
-                vs += [v] * k
-                rs += [r] * k
-                xs += members
-    return vs, rs, xs
+            queue = [unvisited.pop()]
+            for y in queue:
+                found = unvisited - adj[y] if unordered is None else unvisited & unordered[y]
+                if found:
+                    unvisited -= found
+                    queue += found
+                    k = len(found)
+                    vs += [v] * k
+                    ys += [y] * k
+                    xs += found
+                    if not unvisited:
+                        break
+    return vs, ys, xs
 
 
-def co_component_ties(adj: list[set[int]], compiled: bool | None = None):
-    """Arrays (v, r, x): for each item v and each co-component C of its neighbourhood with root
-    r, one row per other member x.  Uses the compiled kernel when numba is available."""
+def gamma_steps(adj: list[set[int]], unordered: list[set[int]] | None = None,
+                compiled: bool | None = None):
+    """Arrays (v, y, x), one row per spanning Γ step around each item v: arcs at v of edges
+    {v, y} and {v, x} are oriented alike because {y, x} must stay unordered (every non-adjacent
+    pair, or only the pairs of ``unordered``).  Compiled kernel when numba is available."""
     if compiled is None:
         compiled = _kernels.HAVE_NUMBA
     if compiled:
         indptr, indices = _kernels.csr(adj)
-        return _kernels.co_component_ties(indptr, indices)
-    vs, rs, xs = _co_components_py(adj)
-    return (np.asarray(vs, dtype=np.int64), np.asarray(rs, dtype=np.int64),
+        if unordered is None:
+            uptr, uidx = indptr[:1], indices[:0]
+        else:
+            uptr, uidx = _kernels.csr(unordered)
+        return _kernels.co_component_ties(indptr, indices, uptr, uidx, unordered is not None)
+    vs, ys, xs = _co_components_py(adj, unordered)
+    return (np.asarray(vs, dtype=np.int64), np.asarray(ys, dtype=np.int64),
             np.asarray(xs, dtype=np.int64))
+
+
+def implication_ties(adj: list[set[int]], unordered: list[set[int]] | None = None):
+    """Edges and Γ ties in array form: ``lo, hi, keys`` (edge e joins lo[e] < hi[e], sorted by
+    ``keys = lo * n + hi``) and ``e1, e2, flip`` (edges e1 and e2 tied; ``flip`` when "alike"
+    means opposite lo→hi senses).  The tie graph's components are the implication classes."""
+    n = len(adj)
+    lo, hi, keys = _edge_arrays(adj)
+    vs, ys, xs = gamma_steps(adj, unordered)
+    e1 = np.searchsorted(keys, np.minimum(vs, ys) * n + np.maximum(vs, ys))
+    e2 = np.searchsorted(keys, np.minimum(vs, xs) * n + np.maximum(vs, xs))
+    fl = ((vs < ys) != (vs < xs)).astype(np.int64)
+    return lo, hi, keys, e1, e2, fl
 
 
 def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
@@ -152,14 +167,10 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``.
     """
     n = len(adj)
-    lo, hi, keys = _edge_arrays(adj)
+    lo, hi, keys, e1, e2, fl = implication_ties(adj)
     m = len(lo)
     if m == 0:
         return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
-    vs, rs, xs = co_component_ties(adj)
-    e1 = np.searchsorted(keys, np.minimum(vs, rs) * n + np.maximum(vs, rs))
-    e2 = np.searchsorted(keys, np.minimum(vs, xs) * n + np.maximum(vs, xs))
-    fl = ((vs < rs) != (vs < xs)).astype(np.int64)
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
     ncomp, comp = _components(m, e1, e2, fl)
     c0 = comp[0::2]
@@ -170,7 +181,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
         # (a planted odd hole's own edges rather than the big class it may be joined to)
         deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
         picks = bad[np.argsort(deg[lo[bad]] + deg[hi[bad]], kind="stable")[:CHAIN_TRIES]]
-        graph = _tie_graph(m, e1, e2, fl)
+        graph = tie_graph(m, e1, e2, fl)
         chain = min((_conflict_chain(adj, graph, int(e), lo, hi) for e in picks), key=len)
         return ForcingResult(n, False, lo, hi, None, ncomp // 2, chain)
     # orient each class: keep the direction whose smallest tail < smallest head
@@ -193,10 +204,10 @@ def _components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
         return _kernels.doubled_components(m, e1, e2, fl)
     from scipy.sparse.csgraph import connected_components
 
-    return connected_components(_tie_graph(m, e1, e2, fl), directed=False)
+    return connected_components(tie_graph(m, e1, e2, fl), directed=False)
 
 
-def _tie_graph(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
+def tie_graph(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
     """The doubled tie graph as a scipy sparse matrix (2m nodes)."""
     from scipy.sparse import coo_matrix
 

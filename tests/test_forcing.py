@@ -96,23 +96,33 @@ def test_a_wrong_chain_fails_its_check():
         certify.check_forcing_chain(p, broken)
 
 
-def test_compiled_and_pure_python_co_components_agree():
-    # two independent implementations of the same step (numba kernel, set-based loop)
-    from satorder.forcing import co_component_ties
+def test_compiled_and_pure_python_gamma_steps_agree():
+    # two independent implementations of the same step (numba kernel, set-based loop): each
+    # step is a genuine Γ step, and both give the same co-components around every item
+    from satorder.forcing import gamma_steps
 
-    def partition(ties, n):
-        groups = {}
-        for v, r, x in zip(*(t.tolist() for t in ties)):
-            groups.setdefault((v, r), {r}).add(x)
-        return {(v, frozenset(g)) for (v, _), g in groups.items()}
+    def partition(steps, adj, unordered):
+        trees: dict = {}
+        for v, y, x in zip(*(t.tolist() for t in steps)):
+            assert y in adj[v] and x in adj[v] and y != x
+            assert (x not in adj[y]) if unordered is None else (x in unordered[y])
+            trees.setdefault(v, nx.Graph()).add_edge(y, x)
+        return {(v, frozenset(c)) for v, g in trees.items() for c in nx.connected_components(g)}
 
     rnd = random.Random(11)
     for _ in range(60):
         n = rnd.randint(2, 40)
         g = nx.gnp_random_graph(n, rnd.uniform(0.05, 0.9), seed=rnd.randrange(1 << 30))
         adj = Problem.from_networkx(g).adj
-        fast = partition(co_component_ties(adj, compiled=True), n)
-        slow = partition(co_component_ties(adj, compiled=False), n)
+        unordered = None
+        if rnd.random() < 0.5:  # an explicit list: some non-adjacent pairs, the rest open
+            unordered = [set() for _ in range(n)]
+            for a, b in nx.complement(g).edges():
+                if rnd.random() < 0.6:
+                    unordered[a].add(b)
+                    unordered[b].add(a)
+        fast = partition(gamma_steps(adj, unordered, compiled=True), adj, unordered)
+        slow = partition(gamma_steps(adj, unordered, compiled=False), adj, unordered)
         assert fast == slow
 
 
@@ -122,7 +132,7 @@ def test_compiled_union_find_matches_scipy_components():
     from scipy.sparse.csgraph import connected_components
 
     from satorder import _kernels
-    from satorder.forcing import _tie_graph
+    from satorder.forcing import tie_graph
 
     rnd = np.random.default_rng(3)
     for _ in range(30):
@@ -131,6 +141,6 @@ def test_compiled_union_find_matches_scipy_components():
         e1, e2 = rnd.integers(0, m, k), rnd.integers(0, m, k)
         fl = rnd.integers(0, 2, k)
         _, ours = _kernels.doubled_components(m, e1, e2, fl)
-        _, ref = connected_components(_tie_graph(m, e1, e2, fl), directed=False)
+        _, ref = connected_components(tie_graph(m, e1, e2, fl), directed=False)
         pairs = set(zip(ours.tolist(), ref.tolist()))
         assert len(pairs) == len(set(ours.tolist())) == len(set(ref.tolist()))
