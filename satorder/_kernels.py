@@ -8,6 +8,7 @@ twins are used, slower but with identical results.
 from __future__ import annotations
 
 import importlib.util
+import sys
 
 import numpy as np
 
@@ -20,10 +21,21 @@ def compiled(name: str):
     on first use, so that importing satorder stays quick)."""
     fn = _compiled.get(name)
     if fn is None:
-        from numba import njit
-
-        fn = _compiled[name] = njit(cache=True)(globals()["_" + name])
+        fn = _compiled[name] = import_njit()(cache=True)(globals()["_" + name])
     return fn
+
+
+def import_njit():
+    """``numba.njit``, imported on first use.  An import cut short (Ctrl-C during the first
+    solve) would leave half of numba in ``sys.modules`` and break every later call, so a failed
+    import removes what it loaded and lets the next call start afresh."""
+    try:
+        from numba import njit
+    except BaseException:
+        for key in [k for k in sys.modules if k == "numba" or k.startswith("numba.")]:
+            del sys.modules[key]
+        raise
+    return njit
 
 
 def co_component_ties(indptr, indices, uindptr, uindices, explicit):

@@ -15,6 +15,7 @@ message naming the offending items.
 from __future__ import annotations
 
 import importlib.util
+import sys
 from itertools import chain
 
 import numpy as np
@@ -38,8 +39,12 @@ def _first_intransitive(succ: list[set[int]]):
         indices = np.fromiter(chain.from_iterable(succ), dtype=np.int64, count=int(indptr[-1]))
         global _kernel
         if _kernel is None:
-            from numba import njit
-
+            try:
+                from numba import njit
+            except BaseException:  # an interrupted import must not leave half of numba loaded
+                for key in [k for k in sys.modules if k == "numba" or k.startswith("numba.")]:
+                    del sys.modules[key]
+                raise
             _kernel = njit(cache=True)(_intransitive_kernel)
         a, b, c = _kernel(indptr, indices)
         return None if a < 0 else (int(a), int(b), int(c))
