@@ -74,6 +74,9 @@ def run(args) -> int:
     out.print(doc.get("comment", ""))
     out.print(f"{problem.n} jobs, {problem.num_comparable} pairs that must be sequenced.\n")
     print_answer(solve(problem), out)
+    out.print("[dim]This is one of several orders that honour these pairs (part 4 counts them); "
+              "which job goes first in each pair is not yet pinned down. Part 2 adds the crews' "
+              "fixed rules.[/]")
 
     doc, rules = load_demo_rules()
     out.rule("[bold]part 2: hard rules and undecided pairs (SAT engine)[/]")
