@@ -182,7 +182,8 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
         deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
         picks = bad[np.argsort(deg[lo[bad]] + deg[hi[bad]], kind="stable")[:CHAIN_TRIES]]
         graph = tie_graph(m, e1, e2, fl)
-        chain = min((_conflict_chain(adj, graph, int(e), lo, hi) for e in picks), key=len)
+        chain = min((_conflict_chain(adj, graph, int(e), lo, hi) for e in picks),
+                    key=lambda c: (len(c), len({i for s in c for i in s.arc})))
         return ForcingResult(n, False, lo, hi, None, ncomp // 2, chain)
     # orient each class: keep the direction whose smallest tail < smallest head
     big = np.iinfo(np.int64).max

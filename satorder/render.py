@@ -26,6 +26,20 @@ def levels(succ: list[set[int]]) -> list[list[int]]:
     return out
 
 
+def _print_chain(chain, names: list[str], console: Console) -> None:
+    """The forcing chain, one numbered arc per line with the pair that forces it."""
+    console.print("Forcing chain: each arc forces the next, ending in the reverse of the first.")
+    for k, s in enumerate(chain[:MAX_ROWS], 1):
+        a, b = s.arc
+        why = ("start" if s.because is None else
+               f"forced: {names[s.because[0]]} and {names[s.because[1]]} stay unordered")
+        console.print(f"  {k:>3}. {names[a]} → {names[b]}   [dim]{why}[/]")
+    if len(chain) > MAX_ROWS:
+        console.print(f"  … {len(chain) - MAX_ROWS} more steps (use --json).")
+    a, b = chain[0].arc
+    console.print(f"  The last arc is {names[b]} → {names[a]}, the reverse of step 1.")
+
+
 def print_answer(ans: Answer, console: Console, hint_file: str | None = None) -> None:
     p = ans.problem
     names = p.items
@@ -71,18 +85,10 @@ def print_answer(ans: Answer, console: Console, hint_file: str | None = None) ->
                           "(a minimal core: drop any one and the rest can be met):")
             print_core(ans.core, names, console, limit=20)
             if ans.chain is not None:
-                console.print(f"[dim]Certified by a forcing chain of {len(ans.chain)} arcs "
-                              "(see --json).[/]")
+                _print_chain(ans.chain, names, console)
         elif ans.chain is not None:
-            console.print("No order exists. Forcing chain: each arc forces the next, ending in "
-                          "the reverse of the first.")
-            for k, s in enumerate(ans.chain, 1):
-                a, b = s.arc
-                why = ("start" if s.because is None else
-                       f"forced: {names[s.because[0]]} and {names[s.because[1]]} stay unordered")
-                console.print(f"  {k:>3}. {names[a]} → {names[b]}   [dim]{why}[/]")
-            a, b = ans.chain[0].arc
-            console.print(f"  The last arc is {names[b]} → {names[a]}, the reverse of step 1.")
+            console.print("No order exists.")
+            _print_chain(ans.chain, names, console)
         elif ans.core is not None:
             console.print("No order exists. These requirements cannot all hold:")
             for r in ans.core[:MAX_ROWS]:

@@ -59,6 +59,7 @@ def test_human_output_shows_chain_and_points_to_explain(tmp_path):
     code, out, _ = run("solve", f)
     assert code == 0
     assert "INFEASIBLE" in out and "minimal core" in out and "explain" in out
+    assert "Forcing chain" in out and "reverse of step 1" in out
 
 
 def test_out_file_is_written_whole(tmp_path):

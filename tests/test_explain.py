@@ -318,7 +318,7 @@ def test_solve_summary_shows_a_minimal_core_and_points_to_explain(tmp_path, caps
     assert main(["solve", path]) == 0
     out = capsys.readouterr().out
     assert "minimal core" in out and f"satorder explain {path}" in out
-    assert "yard" not in out.split("minimal core")[1].split("Run")[0]
+    assert "yard" not in out.split("minimal core")[1].split("Forcing chain")[0]
 
 
 def test_repairs_on_a_larger_graph_grow_past_the_first_obstruction():
