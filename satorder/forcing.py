@@ -11,15 +11,16 @@ How it is computed here (near-linear work in practice):
 
 * Around each item ``v``, arcs ``v→x`` and ``v→y`` are tied by Γ (directly or through other
   arcs at ``v``) exactly when ``x`` and ``y`` lie in the same connected component of the
-  *complement* of the neighbourhood ``G[N(v)]``.  A frontier-at-a-time breadth-first search in
-  that complement (one set intersection per frontier, not per pair of neighbours) finds these
-  co-components; each ties all its arcs at ``v`` to one root arc.
+  *complement* of the neighbourhood ``G[N(v)]``.  A breadth-first search in that complement
+  (compiled; work per centre is the sum of its neighbours' degrees, not the square of its own)
+  gives a spanning forest of each co-component; each forest edge ``{y, x}`` is one Γ step.
 * Each undirected edge ``e`` gets two nodes, one per direction; a Γ step links the matching
   directions.  Connected components of this doubled graph (scipy) are the implication classes.
   An edge whose two directions fall in one component is a *conflict*: a breadth-first path
-  between them, with each tie expanded into single Γ steps through the complement of the
-  neighbourhood, is a chain of forcing steps from an arc to its own reverse, each step naming
-  its witness pair (a pair that must stay unordered) — the conflict certificate.
+  between them (each tie is a single Γ step, from a spanning forest of the co-components),
+  shortcut wherever an arc forces a later one directly, is a chain of forcing steps from an arc
+  to its own reverse, each step naming its witness pair (a pair that must stay unordered) —
+  the conflict certificate.
 * Without conflict, each class is oriented by a consistent rule: keep the class whose smallest
   tail item is smaller than its smallest head item.  By Gallai's modular decomposition theorem
   the classes are the pairs of children of series nodes (where this rule orders the children
@@ -219,26 +220,19 @@ def tie_graph(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
     ).tocsr()
 
 
-def _complement_path(adj: list[set[int]], nb: set[int], r: int, x: int) -> list[int]:
-    """A path r, ..., x of items of ``nb`` in which consecutive items are non-adjacent."""
-    pred = {r: r}
-    queue = [r]
-    for y in queue:
-        if y == x:
-            break
-        for z in nb - adj[y]:
-            if z not in pred and z != y:
-                pred[z] = y
-                queue.append(z)
-    path = [x]
-    while path[-1] != r:
-        path.append(pred[path[-1]])
-    return path[::-1]
+def _gamma_witness(adj: list[set[int]], first: Arc, second: Arc) -> Arc | None:
+    """The pair that must stay unordered when ``first`` Γ-forces ``second``, else ``None``."""
+    (a, b), (c, d) = first, second
+    if a == c and b != d and d not in adj[b]:
+        return (b, d)
+    if b == d and a != c and c not in adj[a]:
+        return (a, c)
+    return None
 
 
 def _conflict_chain(adj, graph, e: int, lo: np.ndarray, hi: np.ndarray) -> list[ForcingStep]:
-    """Shortest chain (in the link graph) from arc lo[e]→hi[e] to its reverse, expanded into
-    single Γ steps, each with its witness pair."""
+    """A short chain of Γ steps from arc lo[e]→hi[e] to its reverse, each with its witness
+    pair: a breadth-first path in the tie graph, then shortcut."""
     from scipy.sparse.csgraph import breadth_first_order
 
     _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
@@ -252,13 +246,16 @@ def _conflict_chain(adj, graph, e: int, lo: np.ndarray, hi: np.ndarray) -> list[
         a, b = int(lo[k]), int(hi[k])
         return (a, b) if node % 2 == 0 else (b, a)
 
-    steps = [ForcingStep(arc(path[0]), None)]
-    for node in path[1:]:
-        (a, b), (c, d) = steps[-1].arc, arc(node)
-        if a == c:  # both out of a: walk b ... d through non-adjacent neighbours of a
-            walk = _complement_path(adj, adj[a], b, d)
-            steps += [ForcingStep((a, z), (y, z)) for y, z in zip(walk, walk[1:])]
-        else:  # both into b: walk a ... c
-            walk = _complement_path(adj, adj[b], a, c)
-            steps += [ForcingStep((z, b), (y, z)) for y, z in zip(walk, walk[1:])]
+    # every tie is a single Γ step; shortcut to the farthest later arc forced directly, since
+    # a spanning forest of ties can make detours that the Γ relation itself does not need
+    arcs = [arc(node) for node in path]
+    steps = [ForcingStep(arcs[0], None)]
+    i = 0
+    while i < len(arcs) - 1:
+        for j in range(len(arcs) - 1, i, -1):
+            witness = _gamma_witness(adj, arcs[i], arcs[j])
+            if witness is not None:
+                break
+        steps.append(ForcingStep(arcs[j], witness))
+        i = j
     return steps
