@@ -25,6 +25,14 @@ from . import order as order_ops
 DRAW_LIMIT = 2000
 
 FONT = "DejaVu Sans, Verdana, Arial, sans-serif"
+
+
+def svg_start(width: float, height: float, font_size: int | None = None) -> list[str]:
+    """Opening lines shared by every picture: the ``<svg>`` element and a white background."""
+    size = f' font-size="{font_size}"' if font_size else ""
+    return [f'<svg xmlns="http://www.w3.org/2000/svg" width="{width:.0f}" height="{height:.0f}" '
+            f'viewBox="0 0 {width:.0f} {height:.0f}" font-family="{FONT}"{size}>',
+            '<rect width="100%" height="100%" fill="white"/>']
 CHAR_W = 7.0  # approximate advance of one character at 12 px
 MAX_LABEL = 18
 ROW_ITEMS = 28  # items per row before a level wraps
@@ -106,9 +114,7 @@ def hasse_svg(succ: list[set[int]], names: list[str], chain=None, antichain=None
     chain_set = set(chain or [])
     chain_arcs = set(zip(chain or [], (chain or [])[1:]))
     anti = set(antichain or [])
-    out = [f'<svg xmlns="http://www.w3.org/2000/svg" width="{width:.0f}" height="{total_h:.0f}" '
-           f'viewBox="0 0 {width:.0f} {total_h:.0f}" font-family="{FONT}">',
-           '<rect width="100%" height="100%" fill="white"/>']
+    out = svg_start(width, total_h)
     heading = title or f"Hasse diagram: {n} items, {len(cover)} covering pairs"
     out.append(f'<text x="16" y="26" font-size="16" font-weight="bold">{escape(heading)}</text>')
     out.append('<text x="16" y="46" font-size="12" fill="#444">lower items below; '
@@ -162,9 +168,7 @@ def dominance_svg(succ: list[set[int]], names: list[str], realizer: list[list[in
     def xy(x):
         return margin_l + (p1[x] + 0.5) * cell, margin_t + (n - p2[x] - 0.5) * cell
 
-    out = [f'<svg xmlns="http://www.w3.org/2000/svg" width="{width:.0f}" height="{height:.0f}" '
-           f'viewBox="0 0 {width:.0f} {height:.0f}" font-family="{FONT}">',
-           '<rect width="100%" height="100%" fill="white"/>']
+    out = svg_start(width, height)
     heading = title or f"Dominance drawing: {n} items"
     out.append(f'<text x="16" y="26" font-size="16" font-weight="bold">{escape(heading)}</text>')
     out.append('<text x="16" y="46" font-size="12" fill="#444">x &lt; y exactly when y lies up '

@@ -21,7 +21,8 @@ from __future__ import annotations
 import math
 from html import escape
 
-FONT = "DejaVu Sans, Verdana, Arial, sans-serif"
+from .draw import svg_start
+
 MAX_ITEMS = 80
 COLOURS = {
     "graph": "#b8b8b8",
@@ -79,11 +80,7 @@ def explanation_svg(expl, title: str | None = None) -> str:
         ang = -math.pi / 2 + 2 * math.pi * i / k
         pos[v] = (cx + radius * math.cos(ang), cy + radius * math.sin(ang))
 
-    out = [
-        f'<svg xmlns="http://www.w3.org/2000/svg" width="{width:.0f}" height="{height:.0f}" '
-        f'viewBox="0 0 {width:.0f} {height:.0f}" font-family="{FONT}" font-size="13">',
-        "<defs>",
-    ]
+    out = svg_start(width, height, font_size=13) + ["<defs>"]
     for key in ("fixed", "forbidden"):
         out.append(
             f'<marker id="arrow-{key}" viewBox="0 0 10 10" refX="10" refY="5" '
@@ -92,7 +89,6 @@ def explanation_svg(expl, title: str | None = None) -> str:
             f'<path d="M0,0 L10,5 L0,10 z" fill="{COLOURS[key]}"/></marker>'
         )
     out.append("</defs>")
-    out.append(f'<rect width="{width:.0f}" height="{height:.0f}" fill="white"/>')
     heading = title or (
         f"Why no order exists: a minimal core of {len(core)} requirements"
         if expl.status == "infeasible" else f"Status: {expl.status}"

@@ -14,9 +14,9 @@ from __future__ import annotations
 
 from html import escape
 
+from .draw import svg_start
 from .modular import LEAF, PRIME, SERIES, ModuleNode
 
-FONT = "DejaVu Sans, Verdana, Arial, sans-serif"
 DX, DY, MARGIN = 48, 80, 30
 COLOUR = {SERIES: "#1f77b4", PRIME: "#d62728", "parallel": "#7f7f7f"}
 
@@ -46,10 +46,7 @@ def decomposition_svg(tree: ModuleNode, names: list[str], title: str = "") -> st
     title = title or "Modular decomposition"
     width = max(MARGIN * 2 + max(leaves - 1, 1) * DX + 120, MARGIN * 2 + len(title) * 8.5)
     height = MARGIN * 2 + 60 + deepest * DY + 130
-    parts = [
-        f'<svg xmlns="http://www.w3.org/2000/svg" width="{width:.0f}" height="{height:.0f}" '
-        f'font-family="{FONT}" font-size="12">',
-        '<rect width="100%" height="100%" fill="white"/>',
+    parts = svg_start(width, height, font_size=12) + [
         f'<text x="{MARGIN}" y="{MARGIN}" font-size="14" font-weight="bold">'
         f"{escape(title)}</text>",
     ]
