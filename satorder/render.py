@@ -6,24 +6,9 @@ from rich.console import Console
 from rich.table import Table
 
 from .answer import FEASIBLE, INFEASIBLE, Answer
+from .measure import height
 
 MAX_ROWS = 40
-
-
-def levels(succ: list[set[int]]) -> list[list[int]]:
-    """Items grouped by level: level k holds items whose longest chain from below has k items."""
-    from .order import topological_order
-
-    n = len(succ)
-    depth = [0] * n
-    for a in topological_order(succ):
-        for b in succ[a]:
-            if depth[b] < depth[a] + 1:
-                depth[b] = depth[a] + 1
-    out: list[list[int]] = [[] for _ in range(max(depth, default=-1) + 1)]
-    for a in range(n):
-        out[depth[a]].append(a)
-    return out
 
 
 def _print_chain(chain, names: list[str], console: Console) -> None:
@@ -59,7 +44,7 @@ def print_answer(ans: Answer, console: Console, hint_file: str | None = None) ->
             console.print(f"Unmet preferences cost {ans.cost} ({state}).")
             for a, b, w in ans.unmet or []:
                 console.print(f"  given up: {names[a]} before {names[b]} (weight {w})")
-        lv = levels(ans.succ)
+        lv = height(ans.succ).partition  # Mirsky levels: longest chain from below
         table = Table(title="Levels (each item sits one above its highest predecessor)",
                       show_lines=False)
         table.add_column("level", justify="right")
