@@ -25,9 +25,9 @@ class EngineDisagreement(CertificateError):
 def solve_forcing(problem: Problem) -> Answer:
     """Solve a plain problem with the forcing algorithm (Golumbic 1980, ch. 5)."""
     if not problem.is_plain:
-        raise ValueError(
-            "the forcing engine answers plain problems only (comparable pairs, all other pairs "
-            "unordered); use the SAT engine for side constraints or open pairs"
+        raise InputError(
+            f"{problem.source}: the forcing engine answers plain problems only (comparable "
+            "pairs, all other pairs unordered); use --engine sat or auto"
         )
     t0 = time.perf_counter()
     res = transitive_orientation(problem.adj)
@@ -105,19 +105,14 @@ def solve(
 
         ans = solve_preferences(problem, solver=solver, time_limit=time_limit)
         return verify(ans) if verify_answer else ans
+    if engine == "both":  # _both verifies both engines' answers itself
+        return _both(problem, solver, time_limit, verify_answer)
     if engine == "forcing":
-        if not problem.is_plain:
-            raise InputError(
-                f"{problem.source}: the forcing engine answers plain problems only (comparable "
-                "pairs, all other pairs unordered); use --engine sat or auto"
-            )
         ans = solve_forcing(problem)
-    elif engine == "sat":
+    else:
         from .sat import solve_sat
 
         ans = solve_sat(problem, solver=solver, time_limit=time_limit)
-    else:
-        ans = _both(problem, solver, time_limit, verify_answer)
     if verify_answer:
         verify(ans)
     return ans
