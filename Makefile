@@ -30,7 +30,7 @@ lint: $(TESTSTAMP)
 	$(BIN)/ruff check satorder tests
 
 bench: $(TESTSTAMP)
-	$(BIN)/python -m satorder.bench_targets --out bench-results.json
+	$(BIN)/python benchmarks/targets.py --out bench-results.json
 
 clean:
 	rm -rf $(VENV) build *.egg-info

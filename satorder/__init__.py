@@ -7,14 +7,14 @@ why none exists) out.
 'feasible'
 """
 
-from .answer import Answer
-from .count import count_answers
-from .errors import CertificateError, InputError
-from .explain import explain
-from .modular import modular_decomposition
-from .problem import Problem
-from .readers import problem_from_dict, read_problem
-from .solve import solve
+from satorder.errors import CertificateError, InputError
+from satorder.explanation.explain import explain
+from satorder.graph.modular import modular_decomposition
+from satorder.io.readers import problem_from_dict, read_problem
+from satorder.model.answer import Answer
+from satorder.model.problem import Problem
+from satorder.pipeline.count import count_answers
+from satorder.pipeline.solve import solve
 
 __all__ = [
     "Answer",

@@ -8,8 +8,8 @@ import os
 import signal
 import time
 
-from satorder.answer import Answer
-from satorder.solve import solve
+from satorder.model.answer import Answer
+from satorder.pipeline.solve import solve
 
 
 def slow_forcing(problem, time_limit):

@@ -13,7 +13,7 @@ import time
 
 import pytest
 
-from satorder import bench
+from satorder.bench import runner as bench
 from satorder.cli.main import main
 from satorder.errors import InputError
 

@@ -186,7 +186,8 @@ def test_fast_json_text_equals_the_plain_json_document():
 
 
 def test_check_order_rejects_non_transitive_and_out_of_range():
-    from satorder import CertificateError, Problem, certify
+    from satorder import CertificateError, Problem
+    from satorder.certify import order as certify
 
     p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")])
     with pytest.raises(CertificateError, match="transitive"):
@@ -221,8 +222,8 @@ def test_compiled_transitivity_check_finds_the_same_faults():
     # the compiled check (orders over 64 items) against the set-based one on planted faults
     import random as _random
 
-    from satorder import certify
-    from satorder.order import transitive_closure
+    from satorder.certify import order as certify
+    from satorder.model.order import transitive_closure
 
     rnd = _random.Random(8)
     for _ in range(40):

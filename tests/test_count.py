@@ -13,8 +13,8 @@ from order_reference import count_orientations
 
 from satorder import Problem
 from satorder.cli.main import main
-from satorder.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
-from satorder.modular import PRIME, modular_decomposition
+from satorder.graph.modular import PRIME, modular_decomposition
+from satorder.pipeline.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
 
 # OEIS A001035, "Number of partially ordered sets with n labeled elements"
 A001035 = [1, 1, 3, 19, 219, 4231, 130023]
@@ -258,9 +258,9 @@ def test_cli_count_draws_the_decomposition(tmp_path, capsys):
 
 
 def test_decomposition_check_catches_damaged_trees():
-    from satorder.certify_count import check_decomposition
+    from satorder.certify.decomposition import check_decomposition
     from satorder.errors import CertificateError
-    from satorder.modular import LEAF, ModuleNode
+    from satorder.graph.modular import LEAF, ModuleNode
 
     # C4 = K_{2,2}: series of two parallel pairs, 2! orientations (common practice)
     c4 = [{1, 3}, {0, 2}, {1, 3}, {0, 2}]
@@ -287,7 +287,7 @@ def test_decomposition_check_catches_damaged_trees():
 
 
 def test_decomposition_check_agrees_with_brute_force():
-    from satorder.certify_count import check_decomposition
+    from satorder.certify.decomposition import check_decomposition
 
     for n in (4, 5):
         for edges in graphs(n):

@@ -8,11 +8,11 @@ import random
 
 import pytest
 
-from satorder import dimension as dimension_module
-from satorder.certify_measure import check_dimension, check_dimension_at_least, check_realizer
-from satorder.dimension import dimension, sat_realizer
+from satorder.certify.measure import check_dimension, check_dimension_at_least, check_realizer
 from satorder.errors import CertificateError
-from satorder.order import transitive_closure
+from satorder.measure import dimension as dimension_module
+from satorder.measure.dimension import dimension, sat_realizer
+from satorder.model.order import transitive_closure
 
 
 def random_order(n, p, rng):

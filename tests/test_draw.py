@@ -8,9 +8,9 @@ import random
 import xml.etree.ElementTree as ET
 
 from satorder.cli.main import main
-from satorder.dimension import dimension
-from satorder.draw import dominance_svg, hasse_svg, pictures
-from satorder.order import covering_pairs
+from satorder.measure.dimension import dimension
+from satorder.model.order import covering_pairs
+from satorder.render.order_svg import dominance_svg, hasse_svg, pictures
 
 NS = "{http://www.w3.org/2000/svg}"
 

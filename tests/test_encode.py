@@ -13,10 +13,11 @@ from pysat.formula import CNF
 from pysat.solvers import Solver
 from test_sat import brute_force_feasible, random_problem
 
-from satorder import Problem, certify
+from satorder import Problem
+from satorder.certify import order as certify
 from satorder.cli.main import main
-from satorder.encode import Encoding, direct_encoding
-from satorder.sat import solve_sat
+from satorder.sat.encoding import Encoding, direct_encoding
+from satorder.sat.engine import solve_sat
 
 
 def _read_back(text: str, problem: Problem):
@@ -190,7 +191,7 @@ def test_solve_command_engines_and_solver_option(tmp_path, capsys):
 
 def test_demo_shows_rules_open_pairs_and_a_core(capsys):
     from satorder.cli.demo import load_demo_rules
-    from satorder.solve import solve
+    from satorder.pipeline.solve import solve
 
     _, rules = load_demo_rules()
     assert rules.fixed and rules.forbidden and rules.has_open_pairs
@@ -204,7 +205,7 @@ def test_demo_shows_rules_open_pairs_and_a_core(capsys):
 
 def _slow_problem_file(tmp_path) -> str:
     """A dense open-pair problem (generated, feasible) that takes the SAT engine seconds."""
-    from satorder.generate import open_pairs
+    from satorder.generate.families import open_pairs
 
     path = tmp_path / "slow.json"
     path.write_text(open_pairs(300, seed=1, degree=20.0).to_json_text())
@@ -228,8 +229,8 @@ def test_ctrl_c_stops_cleanly(solver, limit):
     import threading
     import time
 
-    from satorder.generate import open_pairs
-    from satorder.readers import problem_from_dict
+    from satorder.generate.families import open_pairs
+    from satorder.io.readers import problem_from_dict
 
     p = problem_from_dict(open_pairs(300, seed=1, degree=20.0).to_dict())
     tiny = Problem.from_lists(fixed=[("a", "b")], incomparable=[("b", "c")])

@@ -9,9 +9,9 @@ import random
 from test_count import _POSETS, brute_count, random_problem
 
 from satorder import Problem
-from satorder.certify import check_order
+from satorder.certify.order import check_order
 from satorder.cli.main import main
-from satorder.enumeration import EnumerationEnd, enumerate_orders
+from satorder.sat.enumeration import EnumerationEnd, enumerate_orders
 
 
 def brute_answers(p: Problem) -> set[frozenset]:

@@ -12,13 +12,14 @@ import numpy as np
 import pytest
 from conftest import all_posets
 
-from satorder import Problem, certify
+from satorder import Problem
+from satorder.certify import order as certify
+from satorder.certify.derivation import check_derivation
 from satorder.cli.main import main
-from satorder.derivation import build_derivation
 from satorder.errors import CertificateError
-from satorder.explain import explain, requirements
-from satorder.mus import RequirementOracle, minimal_core
-from satorder.replay import check_derivation
+from satorder.explanation.derivation import build_derivation
+from satorder.explanation.explain import explain, requirements
+from satorder.sat.mus import RequirementOracle, minimal_core
 
 
 def meets(arcs, r) -> bool:
@@ -360,9 +361,9 @@ def test_problems_beyond_the_oracle_use_the_sat_engine_core(conflict):
     # 80 items with fixed/forbidden arcs and one planted contradiction (generator of the
     # benchmark suite): the SAT engine's core is shrunk to a minimal one, re-checked
     # independently, explained step by step; repairs are checked by re-solving
-    pytest.importorskip("satorder.sat")
-    from satorder.generate import side_constraints
-    from satorder.readers import problem_from_dict
+    pytest.importorskip("satorder.sat.engine")
+    from satorder.generate.families import side_constraints
+    from satorder.io.readers import problem_from_dict
 
     inst = side_constraints(80, seed=3, conflict=conflict)
     p = problem_from_dict(json.loads(inst.to_json_text()))
@@ -372,7 +373,7 @@ def test_problems_beyond_the_oracle_use_the_sat_engine_core(conflict):
     check_derivation(e.core_json(), e.derivation_json())
     for rep in e.repairs:
         assert rep.verified
-        from satorder.explain import repaired_problem
+        from satorder.explanation.explain import repaired_problem
 
         certify.check_order(repaired_problem(p, rep.drop), rep.succ)
 
@@ -388,7 +389,7 @@ def test_long_odd_cycle_core_is_minimal_and_explained():
 
 
 def test_minimality_witness_checker_rejects_bad_witnesses():
-    from satorder.core_check import check_minimality_witnesses
+    from satorder.certify.minimality import check_minimality_witnesses
 
     # kiln<loom<quay fixed with kiln, quay unordered
     p = Problem.from_lists(comparable=[("kiln", "loom"), ("loom", "quay")],

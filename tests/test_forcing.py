@@ -8,10 +8,11 @@ import networkx as nx
 import pytest
 from conftest import all_graphs, brute_force_orientable
 
-from satorder import Problem, certify
+from satorder import Problem
+from satorder.certify import order as certify
 from satorder.errors import CertificateError
-from satorder.forcing import transitive_orientation
-from satorder.solve import solve
+from satorder.graph.forcing import transitive_orientation
+from satorder.pipeline.solve import solve
 
 
 def _check(g: nx.Graph) -> bool:
@@ -99,7 +100,7 @@ def test_a_wrong_chain_fails_its_check():
 def test_compiled_and_pure_python_gamma_steps_agree():
     # two independent implementations of the same step (numba kernel, set-based loop): each
     # step is a genuine Γ step, and both give the same co-components around every item
-    from satorder.forcing import gamma_steps
+    from satorder.graph.forcing import gamma_steps
 
     def partition(steps, adj, unordered):
         trees: dict = {}
@@ -131,8 +132,8 @@ def test_compiled_union_find_matches_scipy_components():
     import numpy as np
     from scipy.sparse.csgraph import connected_components
 
-    from satorder import _kernels
-    from satorder.forcing import tie_graph
+    from satorder.graph import kernels as _kernels
+    from satorder.graph.forcing import tie_graph
 
     rnd = np.random.default_rng(3)
     for _ in range(30):

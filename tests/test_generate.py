@@ -11,9 +11,10 @@ import pytest
 from conftest import brute_force_orientable
 from order_reference import count_orientations, reference_feasible
 
-from satorder import Problem, certify
+from satorder import Problem
+from satorder.certify import order as certify
 from satorder.cli.main import main
-from satorder.generate import (
+from satorder.generate.families import (
     FAMILIES,
     RECIPES,
     generate,
@@ -21,8 +22,8 @@ from satorder.generate import (
     write_dense_orders,
     write_random_bipartite,
 )
-from satorder.readers import parse_edge_list, parse_json
-from satorder.solve import solve
+from satorder.io.readers import parse_edge_list, parse_json
+from satorder.pipeline.solve import solve
 
 
 def _problem(inst) -> Problem:

@@ -13,8 +13,8 @@ from conftest import brute_force_orientable
 from order_reference import count_orientations, reference_feasible
 
 from satorder import read_problem
-from satorder.generate import RECIPES, make_suite
-from satorder.solve import solve
+from satorder.generate.families import RECIPES, make_suite
+from satorder.pipeline.solve import solve
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 SUITES = ["small", "medium"]
@@ -27,7 +27,7 @@ def _manifest(suite):
 
 def _has_sat() -> bool:
     try:
-        import satorder.sat  # noqa: F401
+        import satorder.sat.engine  # noqa: F401
     except ImportError:
         return False
     return True
@@ -35,14 +35,14 @@ def _has_sat() -> bool:
 
 def _has_count() -> bool:
     try:
-        import satorder.count  # noqa: F401
+        import satorder.pipeline.count  # noqa: F401
     except ImportError:
         return False
     return True
 
 
 def count_answers(problem):
-    from satorder.count import count_answers as count
+    from satorder.pipeline.count import count_answers as count
 
     return count(problem)
 

@@ -11,7 +11,7 @@ import networkx as nx
 import pytest
 
 from satorder import Problem, solve
-from satorder.certify_measure import (
+from satorder.certify.measure import (
     check_height,
     check_measures,
     check_weighted_antichain,
@@ -20,7 +20,7 @@ from satorder.certify_measure import (
 )
 from satorder.cli.main import main
 from satorder.errors import CertificateError
-from satorder.measure import (
+from satorder.measure.figures import (
     Figure,
     hasse_diagram,
     height,
@@ -29,7 +29,7 @@ from satorder.measure import (
     measure,
     width,
 )
-from satorder.order import transitive_closure
+from satorder.model.order import transitive_closure
 
 
 def random_order(n, p, rng):

@@ -15,7 +15,7 @@ import random
 import networkx as nx
 import pytest
 
-from satorder.modular import (
+from satorder.graph.modular import (
     LEAF,
     PARALLEL,
     PRIME,

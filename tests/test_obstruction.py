@@ -11,9 +11,9 @@ import pytest
 from conftest import brute_force_orientable
 
 from satorder import Problem
-from satorder.explain import check_obstruction, explain
-from satorder.forcing import transitive_orientation
-from satorder.obstruction import find_obstruction, is_minimal_obstruction
+from satorder.explanation.explain import check_obstruction, explain
+from satorder.graph.forcing import transitive_orientation
+from satorder.graph.obstruction import find_obstruction, is_minimal_obstruction
 
 
 def orientable_by_search(g: nx.Graph) -> bool:
@@ -164,7 +164,7 @@ def test_minimality_check_rejects_non_minimal_sets():
 
 
 def test_odd_hole_recognition():
-    from satorder.obstruction import is_odd_hole
+    from satorder.graph.obstruction import is_odd_hole
 
     def holes(g, items):
         p = Problem.from_networkx(g)

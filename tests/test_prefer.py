@@ -10,7 +10,7 @@ import pytest
 from test_count import _POSETS, brute_count, random_problem
 
 from satorder import Problem, solve
-from satorder.certify_prefer import check_cost
+from satorder.certify.prefer import check_cost
 from satorder.cli.main import main
 from satorder.errors import CertificateError
 
@@ -129,7 +129,7 @@ def test_cli_solve_json_reports_cost(tmp_path, capsys):
 
 def test_counting_ignores_preferences():
     p = Problem.from_lists(comparable=[("a", "b"), ("b", "c")], prefer=[("a", "b", 1)])
-    from satorder.count import count_answers
+    from satorder.pipeline.count import count_answers
 
     res = count_answers(p)
     assert res.count == 2 == brute_count(p.with_requirements(prefer=[]))

@@ -11,11 +11,12 @@ from conftest import all_graphs, all_posets
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from satorder import Problem, certify
+from satorder import Problem
+from satorder.certify import order as certify
 from satorder.errors import InputError
-from satorder.problem import ProblemBuilder
-from satorder.sat import SatSession, find_core, resolve_solver, solve_sat
-from satorder.solve import solve, solve_forcing, verify
+from satorder.model.problem import ProblemBuilder
+from satorder.pipeline.solve import solve, solve_forcing, verify
+from satorder.sat.engine import SatSession, find_core, resolve_solver, solve_sat
 
 # ---------------------------------------------------------------------- brute force
 
@@ -286,8 +287,8 @@ def test_solver_names():
 def _hard_problem() -> Problem:
     """A dense open-pair problem (generated, feasible) that needs many lazy rounds: no solver
     finishes it within a millisecond."""
-    from satorder.generate import open_pairs
-    from satorder.readers import problem_from_dict
+    from satorder.generate.families import open_pairs
+    from satorder.io.readers import problem_from_dict
 
     return problem_from_dict(open_pairs(200, seed=1, degree=20.0).to_dict())
 

@@ -13,8 +13,8 @@ from rich.panel import Panel
 from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 from rich.table import Table
 
-from .. import bench
-from .common import UsageError, check_output_path, err, out
+from satorder.bench import runner as bench
+from satorder.cli.common import UsageError, check_output_path, err, out
 
 
 def add_parser(sub):

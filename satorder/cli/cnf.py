@@ -11,8 +11,8 @@ from __future__ import annotations
 
 import sys
 
-from ..encode import Encoding
-from .common import atomic_write, check_output_path, err, load
+from satorder.cli.common import atomic_write, check_output_path, err, load
+from satorder.sat.encoding import Encoding
 
 
 def add_parser(sub):

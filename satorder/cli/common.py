@@ -9,8 +9,8 @@ import tempfile
 
 from rich.console import Console
 
-from ..errors import InputError
-from ..readers import read_problem
+from satorder.errors import InputError
+from satorder.io.readers import read_problem
 
 out = Console(highlight=False, soft_wrap=True)
 err = Console(stderr=True, highlight=False, soft_wrap=True)

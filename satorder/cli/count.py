@@ -4,8 +4,17 @@ from __future__ import annotations
 
 from rich.progress import Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
 
-from ..count import DECOMPOSITION, ENUMERATION, check_count, count_answers
-from .common import UsageError, atomic_write, check_output_path, dumps, err, load, out, print_json
+from satorder.cli.common import (
+    UsageError,
+    atomic_write,
+    check_output_path,
+    dumps,
+    err,
+    load,
+    out,
+    print_json,
+)
+from satorder.pipeline.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
 
 TREE_LIMIT = 60  # items up to which the decomposition tree is drawn on screen
 DRAW_LIMIT = 300  # items up to which --draw makes a picture
@@ -17,7 +26,7 @@ def decomposition_tree(problem):
 
     from rich.tree import Tree
 
-    from ..modular import LEAF, PRIME, SERIES, modular_decomposition
+    from satorder.graph.modular import LEAF, PRIME, SERIES, modular_decomposition
 
     names = problem.items
 
@@ -82,8 +91,8 @@ def run(args) -> int:
         check_count(res, solver=args.solver)
     doc = res.to_json()
     if args.draw:
-        from ..modular import modular_decomposition
-        from ..modular_picture import decomposition_svg
+        from satorder.graph.modular import modular_decomposition
+        from satorder.render.decomposition_svg import decomposition_svg
 
         title = f"{problem.source}: modular decomposition of the comparable pairs"
         atomic_write(args.draw, decomposition_svg(modular_decomposition(problem.adj),

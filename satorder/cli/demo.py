@@ -13,11 +13,11 @@ from importlib import resources
 
 from rich.table import Table
 
-from ..encode import direct_encoding
-from ..readers import problem_from_dict
-from ..render import print_answer
-from ..solve import solve
-from .common import out
+from satorder.cli.common import out
+from satorder.io.readers import problem_from_dict
+from satorder.pipeline.solve import solve
+from satorder.render.answer_text import print_answer
+from satorder.sat.encoding import direct_encoding
 
 
 def add_parser(sub):
@@ -108,7 +108,7 @@ def run(args) -> int:
 
 def _part_counts_and_wishes(plain, rules) -> None:
     """Part 4: how many answers each round allows, then weighted wishes (MaxSAT)."""
-    from ..count import check_count, count_answers
+    from satorder.pipeline.count import check_count, count_answers
 
     out.rule("[bold]part 4: how many orders, and the one that keeps the weightiest wishes[/]")
     rounds = (("the plain set-up (part 1)", plain), ("the round with rules (part 2)", rules))

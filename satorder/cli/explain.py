@@ -3,10 +3,7 @@ step-by-step derivation, an obstruction, and repairs."""
 
 from __future__ import annotations
 
-from ..explain import explain
-from ..explain_picture import MAX_ITEMS, explanation_svg
-from ..render_explain import print_explanation
-from .common import (
+from satorder.cli.common import (
     UsageError,
     atomic_write,
     check_output_path,
@@ -15,6 +12,9 @@ from .common import (
     out,
     print_json,
 )
+from satorder.explanation.explain import explain
+from satorder.render.explanation_svg import MAX_ITEMS, explanation_svg
+from satorder.render.explanation_text import print_explanation
 
 
 def add_parser(sub):

@@ -13,8 +13,8 @@ import shlex
 from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 from rich.table import Table
 
-from .. import generate as gen
-from .common import UsageError, err, out
+from satorder.cli.common import UsageError, err, out
+from satorder.generate import families as gen
 
 
 def add_parser(sub):

@@ -11,8 +11,8 @@ import importlib
 import os
 import sys
 
-from ..errors import CertificateError, InputError
-from .common import err
+from satorder.cli.common import err
+from satorder.errors import CertificateError, InputError
 
 # one module per command; each has add_parser(subparsers) and run(args) -> int
 COMMANDS = ["solve", "demo", "measure", "explain", "generate", "bench", "cnf", "count", "orders"]
@@ -30,7 +30,7 @@ def build_parser() -> argparse.ArgumentParser:
         description="Turn pairwise evidence about items into a certified partial order, "
         "or a checkable reason why none exists.",
     )
-    from .. import __version__
+    from satorder import __version__
 
     parser.add_argument("--version", action="version", version=f"satorder {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)

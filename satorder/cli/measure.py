@@ -5,11 +5,11 @@ from __future__ import annotations
 
 from rich.table import Table
 
-from ..certify_measure import check_measures
-from ..errors import InputError
-from ..measure import measure
-from ..solve import ENGINES, solve
-from .common import atomic_write, check_output_path, dumps, err, load, out, print_json
+from satorder.certify.measure import check_measures
+from satorder.cli.common import atomic_write, check_output_path, dumps, err, load, out, print_json
+from satorder.errors import InputError
+from satorder.measure.figures import measure
+from satorder.pipeline.solve import ENGINES, solve
 
 SHOW = 12  # items listed per witness on screen
 
@@ -38,7 +38,7 @@ def _names(names, items, limit=SHOW):
 
 
 def _check_draw(path, source, n):
-    from ..draw import DRAW_LIMIT
+    from satorder.render.order_svg import DRAW_LIMIT
 
     check_output_path(path, source)
     if not path.lower().endswith(".svg"):
@@ -50,7 +50,7 @@ def _check_draw(path, source, n):
 
 def write_pictures(path, source, succ, names, measures=None) -> None:
     """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``)."""
-    from ..draw import pictures
+    from satorder.render.order_svg import pictures
 
     _check_draw(path, source, len(succ))
     if measures is None:

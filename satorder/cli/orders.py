@@ -9,8 +9,8 @@ from __future__ import annotations
 
 import sys
 
-from ..enumeration import EnumerationEnd, enumerate_orders
-from .common import UsageError, dumps, err, load
+from satorder.cli.common import UsageError, dumps, err, load
+from satorder.sat.enumeration import EnumerationEnd, enumerate_orders
 
 
 def add_parser(sub):

@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import sys
 
-from ..render import print_answer
-from ..solve import ENGINES, solve
-from .common import atomic_write, check_output_path, load, out
+from satorder.cli.common import atomic_write, check_output_path, load, out
+from satorder.pipeline.solve import ENGINES, solve
+from satorder.render.answer_text import print_answer
 
 
 def add_parser(sub):
@@ -32,7 +32,7 @@ def run(args) -> int:
     if args.out:
         atomic_write(args.out, text)
     if args.draw and ans.feasible:
-        from .measure import write_pictures
+        from satorder.cli.measure import write_pictures
 
         write_pictures(args.draw, args.file, ans.succ, problem.items)
     if args.json:
@@ -40,7 +40,7 @@ def run(args) -> int:
         sys.stdout.flush()
     else:
         if ans.status == "infeasible":  # one-screen summary: a minimal core of the requirements
-            from ..explain import minimal_core_of
+            from satorder.explanation.explain import minimal_core_of
 
             core = minimal_core_of(ans)
             if core is not None:

@@ -1,0 +1,7 @@
+"""Independent checks: every answer, core, derivation, count and figure the tool prints is
+re-checked here by code that did not produce it.
+
+May import: :mod:`satorder.model`, :mod:`satorder.errors`, and outside libraries (python-sat's
+plain solvers, numpy).  Never an engine (:mod:`satorder.graph`, :mod:`satorder.sat`,
+:mod:`satorder.measure`, :mod:`satorder.explanation`), so a bug in an engine cannot hide in its check.
+"""

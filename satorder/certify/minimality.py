@@ -1,0 +1,73 @@
+"""Independent check that a core is minimal, by witness orders.
+
+A core is minimal when dropping any one member makes the rest feasible.  Instead of re-solving,
+the extractor hands over one *witness* per member: a relation on the core's items that is a
+strict partial order and meets every other member.  This module checks each witness directly
+from the definitions (irreflexive; transitive, hence antisymmetric; each requirement met) and
+that every member is a requirement of the problem.  It shares no code with the extractor
+(:mod:`satorder.mus`).  Infeasibility of the core itself is shown separately, by the replayed
+derivation (:mod:`satorder.replay`) or :func:`satorder.certify.check_core_infeasible`.
+
+>>> core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 0)}]
+>>> check_minimality_witnesses(None, core, {0: [(1, 0)], 1: [(0, 1)]})
+"""
+
+from __future__ import annotations
+
+from satorder.errors import CertificateError
+
+
+def _member_of(problem, r) -> bool:
+    a, b = r["pair"]
+    kind = r["kind"]
+    if not (0 <= a < problem.n and 0 <= b < problem.n) or a == b:
+        return False
+    if kind == "comparable":
+        return b in problem.adj[a]
+    if kind == "incomparable":
+        return b not in problem.adj[a] if problem.incomparable is None \
+            else b in problem.incomparable[a]
+    if kind == "fixed":
+        return (a, b) in set(problem.fixed)
+    if kind == "forbidden":
+        return (a, b) in set(problem.forbidden)
+    return False
+
+
+def _meets(arcs: set, r) -> bool:
+    a, b = r["pair"]
+    kind = r["kind"]
+    if kind == "comparable":
+        return (a, b) in arcs or (b, a) in arcs
+    if kind == "incomparable":
+        return (a, b) not in arcs and (b, a) not in arcs
+    if kind == "fixed":
+        return (a, b) in arcs
+    return (a, b) not in arcs
+
+
+def check_minimality_witnesses(problem, core: list[dict], witnesses: dict) -> None:
+    """Raise :class:`CertificateError` unless every member of ``core`` is a requirement of
+    ``problem`` (skipped when ``problem`` is None) and ``witnesses[k]`` (a collection of arcs
+    ``(a, b)`` meaning ``a < b``) is a strict partial order meeting every member except ``k``."""
+    if problem is not None:
+        for r in core:
+            if not _member_of(problem, r):
+                raise CertificateError(f"core entry {r['kind']} {r['pair']} is not a requirement "
+                                       "of the problem")
+    for k in range(len(core)):
+        if k not in witnesses:
+            raise CertificateError(f"no witness that core member {k} is needed")
+        arcs = set(map(tuple, witnesses[k]))
+        above: dict = {}
+        for a, b in arcs:
+            if a == b:
+                raise CertificateError(f"witness {k} is not irreflexive")
+            above.setdefault(a, set()).add(b)
+        for a, b in arcs:
+            missing = above.get(b, set()) - above[a]
+            if missing:
+                raise CertificateError(f"witness {k} is not transitive at {a} < {b}")
+        for j, r in enumerate(core):
+            if j != k and not _meets(arcs, r):
+                raise CertificateError(f"witness {k} does not meet core member {j}")

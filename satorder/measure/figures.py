@@ -1,0 +1,334 @@
+"""Figures of a strict partial order, each with a witness and a dual certificate.
+
+An order is ``succ: list[set[int]]`` (transitively closed successor sets, see
+:mod:`satorder.order`).  Every figure comes with something that proves it optimal, so that the
+independent checker (:mod:`satorder.certify_measure`) can confirm it without re-running the
+algorithm:
+
+* **height** — items in a longest chain, with one such chain and a partition into that many
+  antichains (the levels).  Mirsky (1971): the least number of antichains covering an order
+  equals its height; an antichain meets a chain at most once, so chain and partition certify
+  each other.  (= maximum clique and optimal colouring of the comparability graph.)
+* **width** — items in a largest antichain, with one, and a partition into that many chains.
+  Dilworth (1950).  The chain partition comes from a maximum matching in the bipartite graph
+  ``x_left — y_right`` for ``x < y`` (Fulkerson 1956: a minimum chain partition has ``n − |M|``
+  chains); the antichain comes from a minimum vertex cover of that graph (König 1931).
+  (= maximum independent set and minimum clique cover of the comparability graph.)
+* **maximum-weight chain** — longest-path dynamic programme; certified by potentials ``s`` with
+  ``s(y) ≥ s(x) + w(x)`` for ``x < y`` and ``s(x) + w(x) ≤ H`` (LP duality for chains).
+* **maximum-weight antichain** — maximum flow in the same bipartite network with capacities
+  ``w`` on the source and sink arcs (Ford & Fulkerson 1962, weighted Dilworth); the antichain is
+  read off a minimum cut, and the flow is the certificate: any flow ``f`` on order pairs with
+  in- and out-flow at most ``w(x)`` at each item gives chains covering each item ``w(x)`` times,
+  ``W − |f|`` of them, so every antichain weighs at most ``W − |f|``.
+* the **Hasse diagram** (covering pairs) and a **linear extension**.
+
+>>> from satorder.measure import height, width
+>>> succ = [{1, 2}, {2}, set(), set()]      # 0 < 1 < 2, item 3 unrelated
+>>> height(succ).value, width(succ).value
+(3, 2)
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from satorder.model import order as order_ops
+
+
+@dataclass
+class Figure:
+    """A figure of an order with its witness and its dual certificate.
+
+    ``value``: the figure; ``witness``: the optimal chain or antichain (items);
+    ``partition``: the dual partition (list of antichains or of chains), when unweighted;
+    ``potentials`` (weighted chain) or ``flow`` (weighted antichain, ``(x, y, amount)``).
+    """
+
+    value: int
+    witness: list[int]
+    partition: list[list[int]] | None = None
+    potentials: list[int] | None = None
+    flow: list[tuple[int, int, int]] | None = None
+
+
+def predecessor_sets(succ: list[set[int]]) -> list[set[int]]:
+    """``pred[b]`` = items strictly below ``b``."""
+    pred: list[set[int]] = [set() for _ in succ]
+    for a, s in enumerate(succ):
+        for b in s:
+            pred[b].add(a)
+    return pred
+
+
+def linear_extension(succ: list[set[int]]) -> list[int]:
+    """Items listed so that every item comes after everything below it."""
+    return order_ops.topological_order(succ)
+
+
+def hasse_diagram(succ: list[set[int]], names: list[str] | None = None):
+    """The covering pairs as a networkx DiGraph (arc lower → upper), on ids or on ``names``."""
+    import networkx as nx
+
+    g = nx.DiGraph()
+    label = (lambda i: i) if names is None else names.__getitem__
+    g.add_nodes_from(label(i) for i in range(len(succ)))
+    g.add_edges_from((label(a), label(b)) for a, b in order_ops.covering_pairs(succ))
+    return g
+
+
+def _longest_chains(succ, weights):
+    """Longest (heaviest) chain ending at each item: returns (best, back) over a topological
+    order; ``best[x]`` includes ``x`` itself, ``back[x]`` the previous item of such a chain."""
+    n = len(succ)
+    best = list(weights)
+    back = [-1] * n
+    for a in order_ops.topological_order(succ):
+        ba = best[a]
+        for b in succ[a]:
+            if ba + weights[b] > best[b]:
+                best[b] = ba + weights[b]
+                back[b] = a
+    return best, back
+
+
+def _trace(back, top):
+    chain = []
+    while top != -1:
+        chain.append(top)
+        top = back[top]
+    chain.reverse()
+    return chain
+
+
+def height(succ: list[set[int]]) -> Figure:
+    """Items in a longest chain, one such chain (bottom first) and the levels as a partition
+    into that many antichains (Mirsky 1971)."""
+    n = len(succ)
+    if n == 0:
+        return Figure(0, [], [])
+    best, back = _longest_chains(succ, [1] * n)
+    h = max(best)
+    top = best.index(h)
+    levels: list[list[int]] = [[] for _ in range(h)]
+    for x in range(n):
+        levels[best[x] - 1].append(x)
+    return Figure(h, _trace(back, top), levels)
+
+
+def max_weight_chain(succ: list[set[int]], weights: list[int]) -> Figure:
+    """A chain of largest total weight, with potentials certifying it (see module doc)."""
+    n = len(succ)
+    if n == 0:
+        return Figure(0, [], potentials=[])
+    best, back = _longest_chains(succ, weights)
+    total = max(best)
+    top = best.index(total)
+    potentials = [best[x] - weights[x] for x in range(n)]  # weight strictly below x
+    return Figure(total, _trace(back, top), potentials=potentials)
+
+
+def _bipartite(succ):
+    """CSR matrix of the bipartite graph x_left — y_right for x < y."""
+    from scipy.sparse import csr_matrix
+
+    n = len(succ)
+    indptr = np.zeros(n + 1, dtype=np.int64)
+    indptr[1:] = np.cumsum([len(s) for s in succ])
+    indices = np.fromiter((b for s in succ for b in s), dtype=np.int32, count=int(indptr[-1]))
+    data = np.ones(len(indices), dtype=np.int8)
+    return csr_matrix((data, indices, indptr), shape=(n, n))
+
+
+def width(succ: list[set[int]]) -> Figure:
+    """Items in a largest antichain, one such antichain and a partition into that many chains
+    (Dilworth 1950, via Hopcroft–Karp matching in scipy and König's theorem)."""
+    from scipy.sparse.csgraph import maximum_bipartite_matching
+
+    n = len(succ)
+    if n == 0:
+        return Figure(0, [], [])
+    g = _bipartite(succ)
+    nxt = maximum_bipartite_matching(g, perm_type="column").tolist()  # x -> y matched, or -1
+    prev = [-1] * n
+    for x, y in enumerate(nxt):
+        if y >= 0:
+            prev[y] = x
+    chains = []
+    for x in range(n):
+        if prev[x] == -1:
+            chain = [x]
+            while nxt[chain[-1]] >= 0:
+                chain.append(nxt[chain[-1]])
+            chains.append(chain)
+    # König: alternating search from unmatched left vertices
+    left_seen = [False] * n
+    right_seen = [False] * n
+    stack = [x for x in range(n) if nxt[x] == -1]
+    for x in stack:
+        left_seen[x] = True
+    while stack:
+        x = stack.pop()
+        for y in succ[x]:
+            if not right_seen[y]:
+                right_seen[y] = True
+                x2 = prev[y]
+                if x2 >= 0 and not left_seen[x2]:
+                    left_seen[x2] = True
+                    stack.append(x2)
+    antichain = [x for x in range(n) if left_seen[x] and not right_seen[x]]
+    return Figure(len(chains), antichain, chains)
+
+
+def max_weight_antichain(succ: list[set[int]], weights: list[int]) -> Figure:
+    """An antichain of largest total weight, read off a minimum cut, with the maximum flow as
+    its certificate (weighted Dilworth; Ford & Fulkerson 1962)."""
+    from scipy.sparse import csr_matrix
+    from scipy.sparse.csgraph import breadth_first_order, maximum_flow
+
+    n = len(succ)
+    if n == 0:
+        return Figure(0, [], flow=[])
+    total = int(sum(weights))
+    if total >= 2**31 - 1:
+        raise ValueError("item weights add up to more than 2^31 - 1; use smaller weights")
+    s, t = 2 * n, 2 * n + 1
+    rows, cols, caps = [], [], []
+    for x in range(n):
+        rows += [s, n + x]
+        cols += [x, t]
+        caps += [weights[x], weights[x]]
+    for x, sx in enumerate(succ):
+        for y in sx:
+            rows.append(x)
+            cols.append(n + y)
+            caps.append(total)
+    cap = csr_matrix((np.array(caps, dtype=np.int32), (rows, cols)), shape=(2 * n + 2,) * 2)
+    res = maximum_flow(cap, s, t, method="dinic")
+    flow = res.flow.tocsr()
+    residual = (cap - flow).tocsr()
+    residual.data[residual.data < 0] = 0
+    residual.eliminate_zeros()
+    reach = np.zeros(2 * n + 2, dtype=bool)
+    reach[breadth_first_order(residual, s, directed=True, return_predecessors=False)] = True
+    antichain = [x for x in range(n) if reach[x] and not reach[n + x]]
+    f = flow.tocoo()
+    pairs = [
+        (int(a), int(b) - n, int(v))
+        for a, b, v in zip(f.row, f.col, f.data)
+        if a < n and n <= b < 2 * n and v > 0
+    ]
+    value = sum(weights[x] for x in antichain)
+    return Figure(value, antichain, flow=pairs)
+
+
+@dataclass
+class Measures:
+    """Everything :func:`measure` computes for one order (item ids; see :meth:`to_json`)."""
+
+    n: int
+    pairs: int
+    height: Figure
+    width: Figure
+    hasse: list[tuple[int, int]]
+    linear_extension: list[int]
+    dimension: object  # satorder.dimension.Dimension
+    weighted_chain: Figure | None = None
+    weighted_antichain: Figure | None = None
+    stats: dict = field(default_factory=dict)
+    verified: bool = False
+
+    def hasse_graph(self, names: list[str] | None = None):
+        """The Hasse diagram as a networkx DiGraph (arc lower → upper), each node carrying its
+        ``level`` (1 = minimal items), on item ids or on ``names``."""
+        import networkx as nx
+
+        label = (lambda i: i) if names is None else names.__getitem__
+        g = nx.DiGraph()
+        for k, part in enumerate(self.height.partition, 1):
+            g.add_nodes_from((label(i) for i in part), level=k)
+        g.add_edges_from((label(a), label(b)) for a, b in self.hasse)
+        return g
+
+    def to_json(self, names: list[str]) -> dict:
+        def nm(items):
+            return [names[i] for i in items]
+
+        doc = {
+            "height": self.height.value,
+            "width": self.width.value,
+            "dimension": self.dimension.value,
+            "items": self.n,
+            "ordered_pairs": self.pairs,
+            "longest_chain": nm(self.height.witness),
+            "largest_antichain": nm(self.width.witness),
+            "antichain_partition": [nm(p) for p in self.height.partition],
+            "chain_partition": [nm(p) for p in self.width.partition],
+            "hasse": [[names[a], names[b]] for a, b in self.hasse],
+            "linear_extension": nm(self.linear_extension),
+        }
+        doc.update(self.dimension.to_json(names))
+        if self.weighted_chain is not None:
+            doc["max_weight_chain"] = {"weight": self.weighted_chain.value,
+                                       "items": nm(self.weighted_chain.witness)}
+            doc["max_weight_antichain"] = {"weight": self.weighted_antichain.value,
+                                           "items": nm(self.weighted_antichain.witness)}
+        doc["verified"] = self.verified
+        doc["stats"] = self.stats
+        return doc
+
+
+def measure(succ, weights: dict[int, int] | None = None,
+            sat_limit: int = 40, time_limit: float | None = 60.0, progress=None) -> Measures:
+    """Height, width, partitions, Hasse diagram, a linear extension and the dimension of an
+    order (plus weighted chain and antichain when ``weights`` is given; missing items weigh 1).
+
+    ``succ`` is an order's successor sets, or a feasible :class:`satorder.Answer` (its order is
+    measured and its problem's ``weights`` used unless ``weights`` is given).
+
+    ``progress(stage)`` is called before each stage, if given.
+
+    >>> m = measure([{1, 2}, {2}, set(), set()])
+    >>> m.height.value, m.width.value, m.dimension.value, m.hasse
+    (3, 2, 2, [(0, 1), (1, 2)])
+    """
+    import time
+
+    from satorder.measure.dimension import dimension
+
+    if hasattr(succ, "succ") and hasattr(succ, "problem"):
+        if succ.succ is None:
+            raise ValueError(f"no order to measure: the answer is {succ.status}")
+        weights = succ.problem.weights if weights is None else weights
+        succ = succ.succ
+
+    def stage(name):
+        if progress is not None:
+            progress(name)
+        return time.perf_counter()
+
+    stats = {}
+    t = stage("height")
+    h = height(succ)
+    t2 = stage("width")
+    stats["height_seconds"] = round(t2 - t, 4)
+    w = width(succ)
+    t = stage("hasse diagram")
+    stats["width_seconds"] = round(t - t2, 4)
+    hasse = order_ops.covering_pairs(succ)
+    lin = linear_extension(succ)
+    t2 = stage("dimension")
+    stats["hasse_seconds"] = round(t2 - t, 4)
+    dim = dimension(succ, sat_limit=sat_limit, time_limit=time_limit)
+    t = time.perf_counter()
+    stats["dimension_seconds"] = round(t - t2, 4)
+    m = Measures(len(succ), sum(len(s) for s in succ), h, w, hasse, lin, dim, stats=stats)
+    if weights is not None:
+        stage("weighted chain and antichain")
+        wl = [weights.get(i, 1) for i in range(len(succ))]
+        m.weighted_chain = max_weight_chain(succ, wl)
+        m.weighted_antichain = max_weight_antichain(succ, wl)
+        stats["weighted_seconds"] = round(time.perf_counter() - t, 4)
+    return m

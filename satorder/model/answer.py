@@ -1,0 +1,115 @@
+"""The answer object every engine returns, and its JSON form (the CLI contract)."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Any
+
+from satorder.model import order as order_ops
+from satorder.model.problem import Problem
+
+FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
+
+
+@dataclass
+class Answer:
+    """Result of solving a problem.
+
+    ``succ`` holds the order as successor sets (transitively closed) when ``status`` is
+    ``"feasible"``; ``chain`` holds a forcing-chain conflict certificate and ``core`` a list of
+    requirements ``{"kind", "pair"}`` (item ids) that cannot hold together, when infeasible.
+    ``verified`` is set only by the independent checks in :mod:`satorder.certify`.
+    """
+
+    problem: Problem
+    status: str
+    engine: str
+    succ: list[set[int]] | None = None
+    chain: list | None = None
+    core: list[dict] | None = None
+    cost: int | None = None
+    optimal: bool | None = None
+    lower_bound: int | None = None
+    unmet: list[tuple[int, int, int]] | None = None
+    stats: dict[str, Any] = field(default_factory=dict)
+    verified: bool = False
+
+    @property
+    def feasible(self) -> bool:
+        return self.status == FEASIBLE
+
+    def pairs(self) -> list[tuple[int, int]]:
+        """Every ordered pair (lower, upper) as item ids."""
+        return list(order_ops.pairs(self.succ or []))
+
+    def named_pairs(self) -> list[list[str]]:
+        names = self.problem.items
+        return [[names[a], names[b]] for a, b in order_ops.pairs(self.succ or [])]
+
+    def covering_pairs(self) -> list[tuple[int, int]]:
+        return order_ops.covering_pairs(self.succ or [])
+
+    def to_networkx(self):
+        """The order as a networkx DiGraph on item names (an arc for every ordered pair)."""
+        import networkx as nx
+
+        g = nx.DiGraph()
+        g.add_nodes_from(self.problem.items)
+        g.add_edges_from((a, b) for a, b in self.named_pairs())
+        return g
+
+    def to_json_text(self) -> str:
+        """The JSON document as one line of text; the (possibly huge) ``order`` list is written
+        directly from the successor sets instead of through millions of small lists."""
+        import json
+
+        doc = self.to_json(include_order=False)
+        if self.succ is None:
+            return json.dumps(doc, separators=(",", ":")) + "\n"
+        q = [json.dumps(name) for name in self.problem.items]
+        parts = []
+        for a, s in enumerate(self.succ):
+            if s:
+                qa = "[" + q[a] + ","
+                parts.append(",".join([qa + q[b] + "]" for b in s]))
+        head = json.dumps({"status": doc.pop("status")}, separators=(",", ":"))[:-1]
+        rest = json.dumps(doc, separators=(",", ":"))[1:]
+        return head + ',"order":[' + ",".join(parts) + "]," + rest + "\n"
+
+    def to_json(self, include_order: bool = True) -> dict[str, Any]:
+        """The machine-readable answer (fields fixed by the CLI contract, extras welcome)."""
+        p = self.problem
+        names = p.items
+        doc: dict[str, Any] = {"status": self.status, "engine": self.engine}
+        if self.succ is not None and include_order:
+            doc["order"] = self.named_pairs()
+        if self.cost is not None:
+            doc["cost"] = self.cost
+        if self.optimal is not None:
+            doc["optimal"] = self.optimal
+        if self.lower_bound is not None:
+            doc["lower_bound"] = self.lower_bound
+        if self.unmet is not None:
+            doc["unmet"] = [
+                {"before": names[a], "after": names[b], "weight": w} for a, b, w in self.unmet
+            ]
+        if self.chain is not None:
+            doc["conflict"] = [
+                {
+                    "arc": [names[s.arc[0]], names[s.arc[1]]],
+                    "because": None
+                    if s.because is None
+                    else [names[s.because[0]], names[s.because[1]]],
+                }
+                for s in self.chain
+            ]
+        if self.core is not None:
+            doc["core"] = [
+                {"kind": r["kind"], "pair": [names[r["pair"][0]], names[r["pair"][1]]]}
+                for r in self.core
+            ]
+        doc["items"] = p.n
+        doc["comparable_pairs"] = p.num_comparable
+        doc["verified"] = self.verified
+        doc["stats"] = self.stats
+        return doc

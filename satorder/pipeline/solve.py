@@ -1,0 +1,159 @@
+"""The solving entry point: choose an engine, run it, certify the answer.
+
+``solve(problem)`` sends plain problems (comparable pairs only, every other pair unordered) to
+the forcing algorithm (:mod:`satorder.forcing`) and everything else to the SAT engine.  Every
+answer passes through :mod:`satorder.certify` before it is returned, unless ``verify=False``.
+"""
+
+from __future__ import annotations
+
+import time
+
+from satorder.certify import order as certify
+from satorder.errors import CertificateError, InputError
+from satorder.graph.forcing import transitive_orientation
+from satorder.model.answer import FEASIBLE, INFEASIBLE, Answer
+from satorder.model.problem import Problem
+
+ENGINES = ("auto", "forcing", "sat", "both")
+
+
+class EngineDisagreement(CertificateError):
+    """Two engines gave different verdicts on the same problem (a bug; the CLI exits 1)."""
+
+
+def solve_forcing(problem: Problem) -> Answer:
+    """Solve a plain problem with the forcing algorithm (Golumbic 1980, ch. 5)."""
+    if not problem.is_plain:
+        raise InputError(
+            f"{problem.source}: the forcing engine answers plain problems only (comparable "
+            "pairs, all other pairs unordered); use --engine sat or auto"
+        )
+    t0 = time.perf_counter()
+    res = transitive_orientation(problem.adj)
+    stats = {"implication_classes": res.num_classes, "seconds": 0.0}
+    if res.orientable:
+        ans = Answer(problem, FEASIBLE, "forcing", succ=res.successor_sets(), stats=stats)
+    else:
+        core = [{"kind": "comparable", "pair": tuple(sorted(s.arc))} for s in res.chain[:-1]]
+        core += [
+            {"kind": "incomparable", "pair": tuple(sorted(s.because))}
+            for s in res.chain[1:]
+        ]
+        ans = Answer(problem, INFEASIBLE, "forcing", chain=res.chain, core=_dedup(core),
+                     stats=stats)
+    stats["seconds"] = round(time.perf_counter() - t0, 6)
+    return ans
+
+
+def _dedup(core: list[dict]) -> list[dict]:
+    seen = set()
+    out = []
+    for r in core:
+        key = (r["kind"], r["pair"])
+        if key not in seen:
+            seen.add(key)
+            out.append(r)
+    return out
+
+
+def verify(answer: Answer) -> Answer:
+    """Run the independent checks on an answer; raises CertificateError on failure."""
+    t0 = time.perf_counter()
+    checked = False
+    if answer.status == FEASIBLE:
+        certify.check_order(answer.problem, answer.succ)
+        checked = True
+        if answer.cost is not None:
+            from satorder.certify.prefer import check_cost
+
+            check_cost(answer.problem, answer.succ, answer.cost, answer.unmet)
+    elif answer.status == INFEASIBLE and answer.chain is not None:
+        certify.check_forcing_chain(answer.problem, answer.chain)
+        checked = True
+    elif answer.status == INFEASIBLE and answer.core is not None:
+        certify.check_core_infeasible(answer.problem, answer.core)
+        checked = True
+    answer.verified = checked  # an answer without a certificate is never called verified
+    answer.stats["verify_seconds"] = round(time.perf_counter() - t0, 6)
+    return answer
+
+
+def solve(
+    problem: Problem,
+    engine: str = "auto",
+    solver: str | None = None,
+    time_limit: float | None = None,
+    verify_answer: bool = True,
+) -> Answer:
+    """Find a strict partial order meeting every requirement of ``problem``, or show none exists.
+
+    ``engine``: ``"auto"`` (forcing for plain problems, SAT otherwise), ``"forcing"``, ``"sat"``
+    or ``"both"`` (run both, raise :class:`EngineDisagreement` if their verdicts differ).
+
+    >>> from satorder import Problem, solve
+    >>> ans = solve(Problem.from_lists(comparable=[("kiln", "loom"), ("loom", "quay")]))
+    >>> ans.status, ans.verified, len(ans.pairs())
+    ('feasible', True, 2)
+    """
+    if engine not in ENGINES:
+        raise ValueError(f"unknown engine {engine!r}; choose one of {', '.join(ENGINES)}")
+    if engine == "auto":
+        engine = "forcing" if problem.is_plain else "sat"
+    if problem.prefer and engine == "sat":  # weighted preferences: MaxSAT (satorder.prefer)
+        from satorder.sat.prefer import solve_preferences
+
+        ans = solve_preferences(problem, solver=solver, time_limit=time_limit)
+        return verify(ans) if verify_answer else ans
+    if engine == "both":  # _both verifies both engines' answers itself
+        return _both(problem, solver, time_limit, verify_answer)
+    if engine == "forcing":
+        ans = solve_forcing(problem)
+    else:
+        from satorder.sat.engine import solve_sat
+
+        ans = solve_sat(problem, solver=solver, time_limit=time_limit)
+    if verify_answer:
+        verify(ans)
+    return ans
+
+
+def _both(problem: Problem, solver, time_limit, verify_answer: bool) -> Answer:
+    """Run the forcing algorithm and the SAT engine and insist that they agree.
+
+    Plain problems: the verdicts must match.  With fixed or forbidden arcs (every unnamed pair
+    unordered) the forcing algorithm answers the comparable pairs alone: if they admit no order,
+    SAT must say infeasible; if its order happens to meet the arcs too, SAT must say feasible.
+    """
+    from satorder.sat.engine import solve_sat
+
+    if problem.incomparable is not None or problem.prefer:
+        raise InputError(
+            f"{problem.source}: --engine both needs a problem whose unnamed pairs stay unordered "
+            "and without preferences (the forcing algorithm cannot answer open pairs)"
+        )
+    base = problem if problem.is_plain else problem.with_requirements(fixed=[], forbidden=[])
+    a = solve_forcing(base)
+    b = solve_sat(problem, solver=solver, time_limit=time_limit)
+    if verify_answer:
+        verify(a)
+        verify(b)
+    if problem.is_plain:
+        expected = a.status
+    elif a.status == INFEASIBLE:
+        expected = INFEASIBLE
+    else:
+        try:
+            certify.check_order(problem, a.succ)
+            expected = FEASIBLE
+        except CertificateError:
+            expected = None  # forcing's orientation breaks an arc; another one may not
+    if b.status != "unknown" and expected is not None and b.status != expected:
+        raise EngineDisagreement(
+            f"forcing says {expected}, SAT says {b.status} on {problem.source}"
+        )
+    if problem.is_plain:
+        a.stats["sat"] = {"status": b.status, **b.stats}
+        return a
+    b.stats["forcing"] = {"status": a.status, "implies": expected, **a.stats}
+    return b

@@ -1,0 +1,86 @@
+"""Human-readable rendering of answers with rich (tables, numbered steps)."""
+
+from __future__ import annotations
+
+from rich.console import Console
+from rich.table import Table
+
+from satorder.measure.figures import height
+from satorder.model.answer import FEASIBLE, INFEASIBLE, Answer
+
+MAX_ROWS = 40
+
+
+def _print_chain(chain, names: list[str], console: Console) -> None:
+    """The forcing chain, one numbered arc per line with the pair that forces it."""
+    console.print("Forcing chain: each arc forces the next, ending in the reverse of the first.")
+    for k, s in enumerate(chain[:MAX_ROWS], 1):
+        a, b = s.arc
+        why = ("start" if s.because is None else
+               f"forced: {names[s.because[0]]} and {names[s.because[1]]} stay unordered")
+        console.print(f"  {k:>3}. {names[a]} → {names[b]}   [dim]{why}[/]")
+    if len(chain) > MAX_ROWS:
+        console.print(f"  … {len(chain) - MAX_ROWS} more steps (use --json).")
+    a, b = chain[0].arc
+    console.print(f"  The last arc is {names[b]} → {names[a]}, the reverse of step 1.")
+
+
+def print_answer(ans: Answer, console: Console, hint_file: str | None = None) -> None:
+    p = ans.problem
+    names = p.items
+    check = "[green]verified[/]" if ans.verified else "[red]not verified[/]"
+    colour = {"feasible": "green", "infeasible": "red"}.get(ans.status, "yellow")
+    console.print(
+        f"[bold {colour}]{ans.status.upper()}[/]  {p.n} items, {p.num_comparable} comparable "
+        f"pairs  (engine: {ans.engine}, {check})"
+    )
+    if ans.status == FEASIBLE:
+        pairs = len(ans.pairs())
+        cover = ans.covering_pairs()
+        console.print(f"The order has {pairs} ordered pairs; {len(cover)} of them are covering "
+                      "pairs (nothing lies between).")
+        if ans.cost is not None:
+            state = "optimal" if ans.optimal else "best found, not proven optimal"
+            console.print(f"Unmet preferences cost {ans.cost} ({state}).")
+            for a, b, w in ans.unmet or []:
+                console.print(f"  given up: {names[a]} before {names[b]} (weight {w})")
+        lv = height(ans.succ).partition  # Mirsky levels: longest chain from below
+        table = Table(title="Levels (each item sits one above its highest predecessor)",
+                      show_lines=False)
+        table.add_column("level", justify="right")
+        table.add_column("items")
+        for k, items in enumerate(lv[:MAX_ROWS]):
+            table.add_row(str(k + 1), ", ".join(names[i] for i in sorted(items)[:30])
+                          + (" …" if len(items) > 30 else ""))
+        console.print(table)
+        table = Table(title="Covering pairs (lower → upper)")
+        table.add_column("lower")
+        table.add_column("")
+        table.add_column("upper")
+        for a, b in sorted(cover, key=lambda ab: (names[ab[0]], names[ab[1]]))[:MAX_ROWS]:
+            table.add_row(names[a], "→", names[b])
+        console.print(table)
+        if len(cover) > MAX_ROWS:
+            console.print(f"… and {len(cover) - MAX_ROWS} more covering pairs (use --json).")
+    elif ans.status == INFEASIBLE:
+        if ans.core is not None and ans.stats.get("minimal_core"):
+            from satorder.render.explanation_text import print_core
+
+            console.print(f"No order exists. These {len(ans.core)} requirements cannot all hold "
+                          "(a minimal core: drop any one and the rest can be met):")
+            print_core(ans.core, names, console, limit=20)
+            if ans.chain is not None:
+                _print_chain(ans.chain, names, console)
+        elif ans.chain is not None:
+            console.print("No order exists.")
+            _print_chain(ans.chain, names, console)
+        elif ans.core is not None:
+            console.print("No order exists. These requirements cannot all hold:")
+            for r in ans.core[:MAX_ROWS]:
+                a, b = r["pair"]
+                console.print(f"  - {r['kind']}: {names[a]}, {names[b]}")
+        if hint_file:
+            console.print(f"Run [bold]satorder explain {hint_file}[/] for a minimal core and a "
+                          "step-by-step derivation.")
+    else:
+        console.print("No answer within the time limit; try a longer --time-limit.")

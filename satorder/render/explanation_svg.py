@@ -1,0 +1,173 @@
+"""A picture of an explanation as SVG text: the items involved, the core highlighted.
+
+Items of the core (and of the obstruction) sit on a circle, in the order of a walk along the
+core's comparable pairs, so a cycle-shaped obstruction appears as a polygon.  Drawn:
+
+* every comparable pair among these items (thin grey: the induced subgraph);
+* core pairs that must be ordered (thick blue), that must stay unordered (dashed red),
+  fixed arcs (green arrows), forbidden arcs (dotted purple arrows crossed at the middle);
+* obstruction items filled orange.
+
+>>> from satorder import Problem
+>>> from satorder.explain import explain
+>>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("c", "d"), ("d", "e"), ("e", "a")])
+>>> svg = explanation_svg(explain(p))
+>>> svg.startswith("<svg") and ">c<" in svg
+True
+"""
+
+from __future__ import annotations
+
+import math
+from html import escape
+
+from satorder.render.order_svg import svg_start
+
+MAX_ITEMS = 80
+COLOURS = {
+    "graph": "#b8b8b8",
+    "comparable": "#1f5fbf",
+    "incomparable": "#d0342c",
+    "fixed": "#1e8c3a",
+    "forbidden": "#7b3fa0",
+    "obstruction": "#f5a623",
+}
+
+
+def _walk_order(items: list[int], core: list[dict]) -> list[int]:
+    """Items in the order of depth-first walks along core comparable pairs (and fixed arcs)."""
+    nb: dict[int, list[int]] = {v: [] for v in items}
+    for r in core:
+        if r["kind"] in ("comparable", "fixed"):
+            a, b = r["pair"]
+            if a in nb and b in nb:
+                nb[a].append(b)
+                nb[b].append(a)
+    seen: set[int] = set()
+    out: list[int] = []
+    for start in sorted(items, key=lambda v: (not nb[v], v)):
+        stack = [start]
+        while stack:
+            v = stack.pop()
+            if v in seen:
+                continue
+            seen.add(v)
+            out.append(v)
+            stack.extend(sorted((u for u in nb[v] if u not in seen), reverse=True))
+    return out
+
+
+def explanation_svg(expl, title: str | None = None) -> str:
+    """SVG text picturing ``expl`` (an :class:`~satorder.explain.Explanation`)."""
+    p = expl.problem
+    names = p.items
+    core = expl.core or []
+    ob = set(expl.obstruction or ())
+    items = expl.involved_items()
+    if len(items) > MAX_ITEMS:
+        raise ValueError(f"{len(items)} items are too many to draw legibly (limit {MAX_ITEMS})")
+    order = _walk_order(items, core)
+    k = max(len(order), 1)
+    radius = max(120.0, 34.0 * k / math.pi)
+    margin_top = 70.0
+    width = max(760.0, 2 * (150.0 + radius))
+    cx, cy = width / 2, margin_top + radius
+    kinds = {r["kind"] for r in core}
+    legend_y = cy + radius + 60
+    height = legend_y + 26 * (len(kinds) + 2) + 20
+    pos = {}
+    for i, v in enumerate(order):
+        ang = -math.pi / 2 + 2 * math.pi * i / k
+        pos[v] = (cx + radius * math.cos(ang), cy + radius * math.sin(ang))
+
+    out = svg_start(width, height, font_size=13) + ["<defs>"]
+    for key in ("fixed", "forbidden"):
+        out.append(
+            f'<marker id="arrow-{key}" viewBox="0 0 10 10" refX="10" refY="5" '
+            f'markerUnits="userSpaceOnUse" markerWidth="13" markerHeight="13" '
+            f'orient="auto-start-reverse">'
+            f'<path d="M0,0 L10,5 L0,10 z" fill="{COLOURS[key]}"/></marker>'
+        )
+    out.append("</defs>")
+    heading = title or (
+        f"Why no order exists: a minimal core of {len(core)} requirements"
+        if expl.status == "infeasible" else f"Status: {expl.status}"
+    )
+    out.append(f'<text x="{width / 2:.0f}" y="32" text-anchor="middle" font-size="17" '
+               f'font-weight="bold">{escape(heading)}</text>')
+
+    def line(a, b, colour, w, dash="", marker="", shorten=0.0):
+        (x1, y1), (x2, y2) = pos[a], pos[b]
+        if shorten:
+            dx, dy = x2 - x1, y2 - y1
+            d = math.hypot(dx, dy) or 1.0
+            x1, y1 = x1 + dx * shorten / d, y1 + dy * shorten / d
+            x2, y2 = x2 - dx * shorten / d, y2 - dy * shorten / d
+        extra = f' stroke-dasharray="{dash}"' if dash else ""
+        extra += f' marker-end="url(#{marker})"' if marker else ""
+        out.append(f'<line x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" y2="{y2:.1f}" '
+                   f'stroke="{colour}" stroke-width="{w}"{extra}/>')
+
+    core_pairs = {frozenset(r["pair"]) for r in core}
+    chosen = set(items)
+    for a in items:
+        for b in p.adj[a]:
+            if a < b and b in chosen and frozenset((a, b)) not in core_pairs:
+                line(a, b, COLOURS["graph"], 1.5)
+    for r in core:
+        a, b = r["pair"]
+        kind = r["kind"]
+        if kind == "comparable":
+            line(a, b, COLOURS[kind], 4)
+        elif kind == "incomparable":
+            line(a, b, COLOURS[kind], 2.5, dash="7,5")
+        elif kind == "fixed":
+            line(a, b, COLOURS[kind], 3.5, marker="arrow-fixed", shorten=17)
+        else:  # a bent arrow, so it stays visible beside a straight line on the same pair
+            (x1, y1), (x2, y2) = pos[a], pos[b]
+            dx, dy = x2 - x1, y2 - y1
+            d = math.hypot(dx, dy) or 1.0
+            x1, y1 = x1 + dx * 16 / d, y1 + dy * 16 / d
+            x2, y2 = x2 - dx * 16 / d, y2 - dy * 16 / d
+            bend = min(45.0, 0.3 * d)
+            qx, qy = (x1 + x2) / 2 - dy * bend / d, (y1 + y2) / 2 + dx * bend / d
+            out.append(f'<path d="M{x1:.1f},{y1:.1f} Q{qx:.1f},{qy:.1f} {x2:.1f},{y2:.1f}" '
+                       f'fill="none" stroke="{COLOURS[kind]}" stroke-width="2.5" '
+                       f'stroke-dasharray="3,4" marker-end="url(#arrow-forbidden)"/>')
+            mx, my = (x1 + 2 * qx + x2) / 4, (y1 + 2 * qy + y2) / 4
+            out.append(f'<text x="{mx:.1f}" y="{my + 8:.1f}" text-anchor="middle" '
+                       f'font-size="24" font-weight="bold" fill="{COLOURS[kind]}">✕</text>')
+    for v in order:
+        x, y = pos[v]
+        fill = COLOURS["obstruction"] if v in ob else "white"
+        out.append(f'<circle cx="{x:.1f}" cy="{y:.1f}" r="14" fill="{fill}" stroke="#333" '
+                   'stroke-width="1.5"/>')
+        dx, dy = x - cx, y - cy
+        d = math.hypot(dx, dy) or 1.0
+        lx, ly = x + 24 * dx / d, y + 24 * dy / d + 4
+        anchor = "start" if dx > 5 else ("end" if dx < -5 else "middle")
+        out.append(f'<text x="{lx:.1f}" y="{ly:.1f}" text-anchor="{anchor}">'
+                   f"{escape(names[v])}</text>")
+
+    legend = [
+        ("comparable", "core: must be ordered", ""),
+        ("incomparable", "core: must stay unordered", "7,5"),
+        ("fixed", "core: fixed arc", ""),
+        ("forbidden", "core: forbidden arc (bent, crossed out)", "3,4"),
+    ]
+    rows = [row for row in legend if row[0] in kinds] + [("graph", "other comparable pair", "")]
+    x0 = 60.0
+    ly = legend_y
+    for key, text, dash in rows:
+        extra = f' stroke-dasharray="{dash}"' if dash else ""
+        out.append(f'<line x1="{x0:.0f}" y1="{ly:.0f}" x2="{x0 + 34:.0f}" y2="{ly:.0f}" '
+                   f'stroke="{COLOURS[key]}" stroke-width="3"{extra}/>')
+        out.append(f'<text x="{x0 + 46:.0f}" y="{ly + 4:.0f}">{escape(text)}</text>')
+        ly += 26
+    if ob:
+        out.append(f'<circle cx="{x0 + 17:.0f}" cy="{ly:.0f}" r="8" '
+                   f'fill="{COLOURS["obstruction"]}" stroke="#333"/>')
+        out.append(f'<text x="{x0 + 46:.0f}" y="{ly + 4:.0f}">obstruction: these {len(ob)} '
+                   "items induce a subgraph with no transitive orientation</text>")
+    out.append("</svg>")
+    return "\n".join(out) + "\n"

@@ -1,0 +1,102 @@
+"""Human-readable rendering of an explanation with rich: core, obstruction, numbered
+derivation (cases indented), smallest-core note and repairs."""
+
+from __future__ import annotations
+
+from rich.console import Console
+from rich.table import Table
+
+from satorder.explanation.derivation import describe
+
+MAX_STEPS = 120
+MAX_ORDER_PAIRS = 12
+
+KIND_WORDS = {
+    "comparable": "must be ordered",
+    "incomparable": "must stay unordered",
+    "fixed": "must come before",
+    "forbidden": "may not come before",
+}
+
+
+def requirement_text(r: dict, names: list[str]) -> str:
+    a, b = (names[v] for v in r["pair"])
+    if r["kind"] in ("fixed", "forbidden"):
+        return f"{a} {KIND_WORDS[r['kind']]} {b}"
+    return f"{a}, {b} {KIND_WORDS[r['kind']]}"
+
+
+def print_core(core: list[dict], names: list[str], console: Console, limit: int = 40) -> None:
+    """The core as a table: one requirement per row."""
+    table = Table(show_header=True, header_style="bold")
+    table.add_column("#", justify="right")
+    table.add_column("kind")
+    table.add_column("requirement")
+    for k, r in enumerate(core[:limit]):
+        table.add_row(str(k), r["kind"], requirement_text(r, names))
+    console.print(table)
+    if len(core) > limit:
+        console.print(f"… and {len(core) - limit} more (use --json).")
+
+
+def print_explanation(expl, console: Console, file: str | None = None) -> None:
+    p = expl.problem
+    names = p.items
+    check = "[green]verified[/]" if expl.verified else "[red]not verified[/]"
+    colour = {"feasible": "green", "infeasible": "red"}.get(expl.status, "yellow")
+    console.print(f"[bold {colour}]{expl.status.upper()}[/]  {p.n} items, "
+                  f"{p.num_comparable} comparable pairs  ({check})")
+    if expl.status == "feasible":
+        hint = f" Run [bold]satorder solve {file}[/] to see it." if file else ""
+        console.print(f"An order meeting every requirement exists; nothing to explain.{hint}")
+        return
+    if expl.status != "infeasible":
+        console.print("No verdict within the limits.")
+        return
+    core = expl.core or []
+    console.print(f"\n[bold]Minimal core[/]: these {len(core)} requirements cannot all hold "
+                  "(on their own, every other pair left open); drop any one and the rest can.")
+    print_core(core, names, console)
+    if expl.obstruction is not None:
+        console.print(
+            f"\n[bold]Obstruction[/]: the comparable pairs alone admit no order. The "
+            f"{len(expl.obstruction)} items {', '.join(names[v] for v in expl.obstruction)} "
+            "induce a subgraph with no transitive orientation; leave out any one of them and "
+            "one exists.")
+    if expl.steps is not None:
+        console.print("\n[bold]Derivation[/] (cases are indented; each step cites earlier steps "
+                      "and core rows):")
+        for st in expl.steps[:MAX_STEPS]:
+            claim, why = describe(st, core, names)
+            style = "bold red" if st.arc is None else ("cyan" if st.rule == "assume" else "")
+            body = f"[{style}]{claim}[/]" if style else claim
+            console.print(f"  {st.number:>3}. {'    ' * st.depth}{body}   [dim]{why}[/]",
+                          highlight=False)
+        if len(expl.steps) > MAX_STEPS:
+            console.print(f"  … {len(expl.steps) - MAX_STEPS} more steps (use --json).")
+        console.print("  [dim]Every step was replayed by the independent checker.[/]")
+    if expl.smallest is not None:
+        s = expl.smallest
+        if s.get("proved"):
+            console.print(f"\nSmallest core: {s['size']} requirements, proven minimum "
+                          f"({s['scope']}).")
+        if s.get("note"):
+            console.print(f"[yellow]Smallest core: {s['note']}[/]")
+    if expl.repairs is not None and not expl.repairs:
+        console.print("\n[bold]Repairs[/]: none found and verified within the limits.")
+    elif expl.repairs is not None:
+        console.print(f"\n[bold]Repairs[/] ({len(expl.repairs)}; each is a minimal set of "
+                      "requirements to drop, checked by finding an order after the change):")
+        focus = {v for r in core for v in r["pair"]}
+        for k, rep in enumerate(expl.repairs, 1):
+            drops = "; ".join(requirement_text(r, names) for r in rep.drop)
+            console.print(f"  {k}. drop: {drops}")
+            if rep.succ is not None:
+                cover = sorted((a, b) for a in focus for b in rep.succ[a] if b in focus)
+                total = sum(len(s) for s in rep.succ)
+                shown = ", ".join(f"{names[a]} < {names[b]}" for a, b in cover[:MAX_ORDER_PAIRS])
+                more = " …" if len(cover) > MAX_ORDER_PAIRS else ""
+                console.print(f"     then an order with {total} ordered pairs exists; among "
+                              f"the core's items: {shown or 'nothing ordered'}{more}")
+    for note in expl.notes:
+        console.print(f"[yellow]Note: {note}[/]")
