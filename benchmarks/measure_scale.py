@@ -18,7 +18,7 @@ import sys
 import time
 
 from satorder.certify.measure import check_measures
-from satorder.measure.figures import measure
+from satorder.measure.summary import measure
 
 
 def union(rng, parts=500, size=100):

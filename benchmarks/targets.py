@@ -167,7 +167,7 @@ _ENCODINGS = (
     "import json, sys, time\n"
     "from pysat.solvers import Solver\n"
     "from satorder import problem_from_dict\n"
-    "from satorder.encode import direct_encoding\n"
+    "from satorder.sat.direct import direct_encoding\n"
     "from satorder.sat import SatSession\n"
     "from satorder import certify\n"
     "doc = json.load(open(sys.argv[1])); solver = sys.argv[2]; which = sys.argv[3]\n"

@@ -10,8 +10,8 @@ import pytest
 
 from satorder.certify.measure import check_dimension, check_dimension_at_least, check_realizer
 from satorder.errors import CertificateError
-from satorder.measure import dimension as dimension_module
-from satorder.measure.dimension import dimension, sat_realizer
+from satorder.measure.dimension import conjugate, dimension, greedy, sat_realizer
+from satorder.measure.dimension import search as dimension_module
 from satorder.model.order import transitive_closure
 
 
@@ -212,7 +212,7 @@ def test_checker_rejects_bad_realizers_and_witnesses():
     # a 10-item witness is checked through a forcing chain (Golumbic 1980, ch. 5) in its
     # incomparability graph; a chain from another order is rejected
     s5 = standard_example(5)
-    chain = dimension_module._witness_chain(s5, list(range(10)))
+    chain = conjugate._witness_chain(s5, list(range(10)))
     check_dimension_at_least(s5, list(range(10)), 3, chain)
     big_perm = permutation_order([5, 0, 8, 2, 9, 1, 7, 3, 6, 4])
     with pytest.raises(CertificateError):
@@ -275,10 +275,10 @@ def test_greedy_realizer_bounds_from_above():
     for _ in range(25):
         n = rng.randint(2, 6)
         succ = random_order(n, rng.random() * 0.7, rng)
-        r = dimension_module.greedy_realizer(succ, seed=rng.randrange(100))
+        r = greedy.greedy_realizer(succ, seed=rng.randrange(100))
         check_realizer(succ, r)
         assert len(r) >= brute_dimension(succ)
-    r = dimension_module.greedy_realizer(standard_example(4))
+    r = greedy.greedy_realizer(standard_example(4))
     check_realizer(standard_example(4), r)
     assert len(r) >= 4
 

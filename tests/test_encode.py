@@ -16,7 +16,8 @@ from test_sat import brute_force_feasible, random_problem
 from satorder import Problem
 from satorder.certify import order as certify
 from satorder.cli.main import main
-from satorder.sat.encoding import Encoding, direct_encoding
+from satorder.sat.direct import direct_encoding
+from satorder.sat.encoding import Encoding
 from satorder.sat.engine import solve_sat
 
 

@@ -26,9 +26,9 @@ from satorder.measure.figures import (
     height,
     max_weight_antichain,
     max_weight_chain,
-    measure,
     width,
 )
+from satorder.measure.summary import measure
 from satorder.model.order import transitive_closure
 
 

@@ -3,5 +3,6 @@ re-checked here by code that did not produce it.
 
 May import: :mod:`satorder.model`, :mod:`satorder.errors`, and outside libraries (python-sat's
 plain solvers, numpy).  Never an engine (:mod:`satorder.graph`, :mod:`satorder.sat`,
-:mod:`satorder.measure`, :mod:`satorder.explanation`), so a bug in an engine cannot hide in its check.
+:mod:`satorder.measure`, :mod:`satorder.explanation`), so that a bug in an engine cannot
+hide in its own check.
 """

@@ -17,7 +17,7 @@ from satorder.cli.common import out
 from satorder.io.readers import problem_from_dict
 from satorder.pipeline.solve import solve
 from satorder.render.answer_text import print_answer
-from satorder.sat.encoding import direct_encoding
+from satorder.sat.direct import direct_encoding
 
 
 def add_parser(sub):

@@ -3,3 +3,7 @@ antichains, the Hasse diagram, a linear extension, and the order dimension with 
 
 May import: :mod:`satorder.pipeline`, engines, :mod:`satorder.certify`, :mod:`satorder.model`.
 """
+
+from satorder.measure.summary import Measures, measure
+
+__all__ = ["Measures", "measure"]

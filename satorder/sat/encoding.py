@@ -61,20 +61,20 @@ Interface (stable; explain, count, MaxSAT and benchmark code build on it)
 
 from __future__ import annotations
 
-import json
 from collections.abc import Iterable, Iterator
-from itertools import chain, islice
+from itertools import islice
 
 import numpy as np
 from scipy.sparse.csgraph import breadth_first_order, connected_components
 
 from satorder.graph.forcing import implication_ties, tie_graph
 from satorder.model.problem import Problem
+from satorder.sat.dimacs import to_dimacs
+from satorder.sat.violations import violations
 
 Arc = tuple[int, int]
 Key = tuple[str, Arc]
 KINDS = ("comparable", "incomparable", "fixed", "forbidden")
-MATRIX_ITEMS = 3000  # up to this many items, violated triples are found by matrix product
 
 
 class Encoding:
@@ -457,92 +457,11 @@ class Encoding:
         starts = [0] + ends[:-1]
         return [set(heads_l[s:e]) for s, e in zip(starts, ends)]
 
-    @staticmethod
-    def violations(succ: list[set[int]], limit: int | None = None) -> list[tuple[int, int, int]]:
-        """Triples ``(a, b, c)`` with ``a<b``, ``b<c`` related but not ``a<c``: one witness ``b``
-        per missing pair ``(a, c)``, at most ``limit`` triples.
-
-        Uses a boolean matrix product (R·R against R) up to a few thousand items, successor-set
-        differences beyond."""
-        n = len(succ)
-        if 0 < n <= MATRIX_ITEMS:
-            # set differences cost about Σ indegree·outdegree element steps, the matrix product
-            # about n³ multiply-adds at far higher speed: pick the cheaper (rough constants)
-            outdeg = np.fromiter((len(x) for x in succ), dtype=np.int64, count=n)
-            heads = np.fromiter(chain.from_iterable(succ), dtype=np.int64,
-                                count=int(outdeg.sum()))
-            paths = int(np.dot(np.bincount(heads, minlength=n), outdeg))
-            if n ** 3 < 450 * paths:
-                return _violations_matrix(succ, limit)
-        out: list[tuple[int, int, int]] = []
-        for a, sa in enumerate(succ):
-            if not sa:
-                continue
-            covered = set(sa)
-            covered.add(a)
-            for b in sa:
-                missing = succ[b] - covered
-                if missing:
-                    covered |= missing
-                    out.extend((a, b, c) for c in missing)
-            if limit is not None and len(out) >= limit:
-                return out[:limit]
-        return out
-
-    # ------------------------------------------------------------------ export
-    def variable_names(self) -> Iterator[tuple[int, str]]:
-        """``(literal, "a<b")`` for every arc that has a literal (both directions of a pair)."""
-        names = self.problem.items
-        for a, b, up, down in sorted(self.pair_literals(), key=lambda t: (abs(t[2]), t[0], t[1])):
-            yield up, f"{_q(names[a])}<{_q(names[b])}"
-            yield down, f"{_q(names[b])}<{_q(names[a])}"
+    violations = staticmethod(violations)
 
     def to_dimacs(self, assume_selectors: bool = True) -> str:
-        """DIMACS CNF text of the clauses so far, with comment lines naming each literal
-        (``c 17 kiln<loom``) and each selector (``c selector 57 comparable kiln loom``).
-
-        With selectors, one unit clause per selector switches every requirement on
-        (``assume_selectors``); delete a unit to drop that requirement.
-        """
-        names = self.problem.items
-        units = [[s] for s in self.selector_of.values()] if assume_selectors else []
-        lines = [
-            "c satorder CNF: a model is a strict partial order meeting the hard requirements",
-            f"c source {self.problem.source}",
-            "c each line 'c LIT a<b' says literal LIT is true exactly when a comes before b;",
-            "c pairs without a literal stay unordered",
-        ]
-        if self.problem.prefer:
-            lines.append("c preferences are soft wishes and are not part of this CNF")
-        lines += [f"c {lit} {text}" for lit, text in self.variable_names()]
-        for (kind, (a, b)), s in sorted(self.selector_of.items(), key=lambda t: t[1]):
-            lines.append(f"c selector {s} {kind} {_q(names[a])} {_q(names[b])}")
-        clauses = self.hard + units
-        lines.append(f"p cnf {self.nv} {len(clauses)}")
-        lines += [" ".join(map(str, cl)) + " 0" for cl in clauses]
-        return "\n".join(lines) + "\n"
-
-
-def _violations_matrix(succ: list[set[int]], limit: int | None):
-    n = len(succ)
-    lens = np.fromiter((len(x) for x in succ), dtype=np.int64, count=n)
-    tails = np.repeat(np.arange(n), lens)
-    heads = np.fromiter(chain.from_iterable(succ), dtype=np.int64, count=int(lens.sum()))
-    r = np.zeros((n, n), dtype=np.float32)
-    r[tails, heads] = 1.0
-    two = r @ r  # two[a, c] > 0: some b with a<b<c
-    miss = (two > 0.5) & (r < 0.5)
-    np.fill_diagonal(miss, False)
-    a_idx, c_idx = np.nonzero(miss)
-    if limit is not None:
-        a_idx, c_idx = a_idx[:limit], c_idx[:limit]
-    out: list[tuple[int, int, int]] = []
-    rb = r > 0.5
-    for s in range(0, len(a_idx), 4096):  # witness b: first item with a<b and b<c
-        aa, cc = a_idx[s:s + 4096], c_idx[s:s + 4096]
-        b_idx = np.argmax(rb[aa] & rb[:, cc].T, axis=1)
-        out.extend(zip(aa.tolist(), b_idx.tolist(), cc.tolist()))
-    return out
+        """DIMACS CNF text of the clauses so far (:func:`satorder.sat.dimacs.to_dimacs`)."""
+        return to_dimacs(self, assume_selectors)
 
 
 def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key] | None:
@@ -589,77 +508,3 @@ def _conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:
         core.append(("comparable", (min(a, b), max(a, b))))
         core.append(("incomparable", (min(x, y), max(x, y))))
     return list(dict.fromkeys(core))
-
-
-def _q(name: str) -> str:
-    """An item name as written in comments: JSON-quoted if it has spaces or '<'."""
-    if not name or any(ch.isspace() or ch in '<"' for ch in name):
-        return json.dumps(name)
-    return name
-
-
-# ---------------------------------------------------------------------- baseline
-class DirectEncoding:
-    """The textbook encoding, the baseline the compact one is measured against: a variable per
-    ordered pair of items, ``¬x_ab ∨ ¬x_ba`` per pair, ``¬x_ab ∨ ¬x_bc ∨ x_ac`` per ordered
-    triple, and one or two clauses per requirement.  ``n(n-1)(n-2)`` transitivity clauses, so
-    the clauses are generated in chunks (:meth:`chunks`) rather than kept in memory.
-    """
-
-    def __init__(self, problem: Problem):
-        self.problem = problem
-        n = self.n = problem.n
-        self.nv = n * (n - 1)
-        p = problem
-        req: list[list[int]] = []
-        for a, b in p.comparable_pairs():
-            req.append([self.lt(a, b), self.lt(b, a)])
-        for a, b in p.incomparable_pairs():
-            req += [[-self.lt(a, b)], [-self.lt(b, a)]]
-        req += [[self.lt(a, b)] for a, b in p.fixed]
-        req += [[-self.lt(a, b)] for a, b in p.forbidden]
-        self.requirement_clauses = req
-        self.num_clauses = n * (n - 1) // 2 + n * (n - 1) * (n - 2) + len(req)
-
-    def lt(self, a: int, b: int) -> int:
-        """Variable of ``a < b``: ordered pairs numbered row by row, skipping the diagonal."""
-        return a * (self.n - 1) + (b if b < a else b - 1) + 1
-
-    def chunks(self, size: int = 200_000) -> Iterator[list[list[int]]]:
-        """All clauses, in lists of about ``size`` clauses."""
-        n = self.n
-        lt = self.lt
-        buf: list[list[int]] = []
-        for a in range(n):
-            for b in range(a + 1, n):
-                buf.append([-lt(a, b), -lt(b, a)])
-        buf += self.requirement_clauses
-        for a in range(n):
-            for b in range(n):
-                if a == b:
-                    continue
-                ab = -lt(a, b)
-                for c in range(n):
-                    if c != a and c != b:
-                        buf.append([ab, -lt(b, c), lt(a, c)])
-                if len(buf) >= size:
-                    yield buf
-                    buf = []
-        if buf:
-            yield buf
-
-    def decode(self, model: Iterable[int]) -> list[set[int]]:
-        true = set(lit for lit in model if lit > 0)
-        n = self.n
-        return [{b for b in range(n) if b != a and self.lt(a, b) in true} for a in range(n)]
-
-
-def direct_encoding(problem: Problem) -> DirectEncoding:
-    """The baseline encoding over every ordered pair and item triple (see :class:`DirectEncoding`).
-
-    >>> from satorder.problem import Problem
-    >>> d = direct_encoding(Problem.from_lists(comparable=[("a", "b"), ("b", "c")]))
-    >>> d.nv, d.num_clauses
-    (6, 13)
-    """
-    return DirectEncoding(problem)

@@ -1,0 +1,172 @@
+"""The dimension search over the parts of an order: split, test dimension two, SAT on small
+parts, bounds beyond (see the package docstring for the whole method).
+"""
+
+from __future__ import annotations
+
+import time
+
+from satorder.measure.dimension.conjugate import (
+    _witness_chain,
+    conjugate_realizer,
+    sample_witness,
+    shrink_witness,
+)
+from satorder.measure.dimension.greedy import GREEDY_LIMIT, _greedy_bound
+from satorder.measure.dimension.partition import large_part_realizer
+from satorder.measure.dimension.result import Dimension, Part
+from satorder.measure.dimension.sat import sat_realizer
+from satorder.measure.dimension.split import _co_components, _components, _hiraguchi, _join, _local
+
+#: largest incomparability graph (pairs) built for the exact dimension-2 test of one part
+MAX_INCOMPARABLE_PAIRS = 3_000_000
+
+
+def dimension_of_items(succ, items, sat_limit=40, deadline=None):
+    """:func:`dimension` of the sub-order on ``items``, answers in item ids."""
+    sub = _local(succ, items)
+    left = None if deadline is None else max(0.1, deadline - time.perf_counter())
+    d = dimension(sub, sat_limit=sat_limit, time_limit=left)
+    if d.realizer is not None:
+        d.realizer = [[items[i] for i in lin] for lin in d.realizer]
+    return d
+
+
+def _bounded(succ, items, lower, upper, witness, witness_lower, sub=None,
+             deadline=None) -> Part:
+    """A part known only within bounds: try a greedy realizer to lower the upper bound (it
+    settles the dimension when it has ``lower`` orders), for at most 10 s and never past the
+    ``deadline``."""
+    seconds = 10.0 if deadline is None else min(10.0, deadline - time.perf_counter())
+    if len(items) <= GREEDY_LIMIT and seconds > 0:
+        r = _greedy_bound(sub if sub is not None else _local(succ, items), items, upper,
+                          seconds=seconds)
+        if r is not None:
+            return Part(lower, len(r), r, witness, witness_lower)
+    return Part(lower, upper, None, witness, witness_lower)
+
+
+def _part_width(succ, items):
+    from satorder.measure.figures import width
+
+    return width(succ if len(items) == len(succ) else _local(succ, items)).value
+
+
+def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> Part:
+    k = len(items)
+    if k == 1:
+        return Part(1, 1, [list(items)])
+    member = set(items)
+    pairs = sum(len(succ[x] & member) for x in items)
+    incomparable = k * (k - 1) // 2 - pairs
+    if incomparable > MAX_INCOMPARABLE_PAIRS:
+        # a quick look for a small sub-order of dimension >= 3 first: when one exists the
+        # refinement below cannot succeed
+        found = sample_witness(succ, pred, items, tries=20, seconds=3.0)
+        if found is None:
+            real = large_part_realizer(succ, pred, items, sat_limit, deadline, notes,
+                                       realize=dimension_of_items)
+            if real is not None:
+                return Part(2, 2, real)
+            found = sample_witness(succ, pred, items, seed=1)
+        upper = min(_part_width(succ, items), _hiraguchi(k))
+        notes.append(f"a part of {k} items has {incomparable} incomparable pairs, too many for "
+                     "the exact dimension-2 test; dimension bounded"
+                     + ("" if found is None else " (a sub-order of dimension ≥ 3 was found)"))
+        if found is not None:
+            found = shrink_witness(succ, found)
+            return _bounded(succ, items, 3, max(3, upper), found, 3, deadline=deadline)
+        return _bounded(succ, items, 2, upper, None, None, deadline=deadline)
+    sub = _local(succ, items)
+    real, chain = conjugate_realizer(sub)
+    if real is not None:
+        return Part(2, 2, [[items[i] for i in lin] for lin in real])
+    wit = sorted({x for s in chain for x in (s.arc + (s.because or ()))})
+    wit = shrink_witness(succ, [items[i] for i in wit])
+    upper = min(_part_width(succ, items), _hiraguchi(k))
+    if k > sat_limit:
+        if k <= 3 * sat_limit:
+            # the witness proves ≥ 3; three orders found within a short budget settle it
+            left = 5.0 if deadline is None else min(5.0, deadline - time.perf_counter())
+            r = sat_realizer(sub, 3, max(0.1, left)) if left > 0 else "unknown"
+            if isinstance(r, list):
+                return Part(3, 3, [[items[i] for i in lin] for lin in r], wit, 3)
+            if r is None and upper >= 4 and k <= 60:  # proven: no 3 orders (checkable size)
+                part = _bounded(succ, items, 4, upper, list(items), 4, sub, deadline)
+                notes.append(f"a part of {k} items has dimension ≥ 4 and more than "
+                             f"{sat_limit} items (the SAT limit); dimension bounded")
+                return part
+        part = _bounded(succ, items, 3, max(3, upper), wit, 3, sub, deadline)
+        if part.upper > 3:
+            notes.append(f"a part of {k} items has dimension ≥ 3 and more than {sat_limit} "
+                         "items (the SAT limit); dimension bounded")
+        return part
+    for d in range(3, upper + 1):
+        left = None if deadline is None else max(0.1, deadline - time.perf_counter())
+        r = sat_realizer(sub, d, left)
+        if r == "unknown":
+            notes.append(f"SAT search for a realizer of size {d} ran out of time on a part of "
+                         f"{k} items")
+            return _bounded(succ, items, d, upper, list(items) if d > 3 else wit, d, sub,
+                            deadline)
+        if r is not None:
+            return Part(d, d, [[items[i] for i in lin] for lin in r],
+                         list(items) if d > 3 else wit, d)
+    raise AssertionError("no realizer within the proven upper bound")  # pragma: no cover
+
+
+def dimension(succ: list[set[int]], sat_limit: int = 40,
+              time_limit: float | None = 60.0) -> Dimension:
+    """The dimension of an order, with a realizer when exact (see module doc)."""
+    t0 = time.perf_counter()
+    n = len(succ)
+    if n == 0:
+        return Dimension("exact", 0, 0, [])
+    pred: list[set[int]] = [set() for _ in range(n)]
+    for a, s in enumerate(succ):
+        for b in s:
+            pred[b].add(a)
+
+    deadline = None if time_limit is None else t0 + time_limit
+    notes: list[str] = []
+    mark = [-1] * n
+    tag = 0
+    counts = {"parallel": 0, "series": 0, "parts": 0}
+
+    # explicit stack: ("split", items, node) then ("join", node) once children are done
+    root: dict = {}
+    stack = [("split", list(range(n)), root)]
+    while stack:
+        kind, items, node = stack.pop()
+        if kind == "join":
+            _join(node)
+            continue
+        tag += 1
+        for x in items:
+            mark[x] = tag
+        comps = _components(items, succ, pred, mark, tag)
+        if len(comps) > 1:
+            node["kind"] = "parallel"
+            counts["parallel"] += 1
+        else:
+            comps = _co_components(items, succ, pred, mark, tag)
+            if len(comps) > 1:
+                node["kind"] = "series"
+                counts["series"] += 1
+                comps.sort(key=lambda c: sum(1 for y in pred[c[0]] if mark[y] == tag))
+        if len(comps) == 1:
+            counts["parts"] += 1
+            node["part"] = _solve_part(succ, pred, items, sat_limit, deadline, notes)
+            continue
+        node["children"] = [{} for _ in comps]
+        stack.append(("join", items, node))
+        for comp, child in zip(comps, node["children"]):
+            stack.append(("split", comp, child))
+    part: Part = root["part"]
+    exact = part.realizer is not None and len(part.realizer) == part.lower
+    dim = Dimension("exact" if exact else "bounded", part.lower, part.upper,
+                    part.realizer, part.witness, part.witness_lower, notes=notes)
+    if dim.witness is not None and dim.witness_lower == 3:
+        dim.witness_chain = _witness_chain(succ, dim.witness)
+    dim.stats = {**counts, "seconds": round(time.perf_counter() - t0, 4)}
+    return dim
