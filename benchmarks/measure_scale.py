@@ -7,7 +7,7 @@ Three invented orders (seeded, generated here):
 * ``band``: one connected 2-dimensional order — item i at (i, 50000 − i + noise), ordered by
   dominance, so only items within a narrow band are comparable.
 
-Run: ``python -m satorder.bench_measure union|bipartite|band`` (prints seconds per stage,
+Run: ``python benchmarks/measure_scale.py union|bipartite|band`` (prints seconds per stage,
 the figures, and the time of the independent check).  Not part of the test suite.
 """
 

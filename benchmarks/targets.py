@@ -31,7 +31,8 @@ import time
 from rich.console import Console
 from rich.table import Table
 
-from satorder.generate import families as generate
+import satorder.generate as generate
+from satorder.generate.families import open_pairs
 
 console = Console(highlight=False)
 GB = 1 << 30
@@ -168,8 +169,8 @@ _ENCODINGS = (
     "from pysat.solvers import Solver\n"
     "from satorder import problem_from_dict\n"
     "from satorder.sat.direct import direct_encoding\n"
-    "from satorder.sat import SatSession\n"
-    "from satorder import certify\n"
+    "from satorder.sat.engine import SatSession\n"
+    "from satorder.certify import order as certify\n"
     "doc = json.load(open(sys.argv[1])); solver = sys.argv[2]; which = sys.argv[3]\n"
     "p = problem_from_dict(doc, sys.argv[1])\n"
     "t = time.perf_counter()\n"
@@ -197,7 +198,7 @@ def encodings(work: str, quick: bool, solver: str = "cadical195") -> list[dict]:
     for n in sizes:
         path = os.path.join(work, f"open-{n}.json")
         if not os.path.exists(path):
-            inst = generate.open_pairs(n, seed=n, degree=3.0, keep=0.5)
+            inst = open_pairs(n, seed=n, degree=3.0, keep=0.5)
             with open(path, "w", encoding="utf-8") as f:
                 f.write(inst.to_json_text())
         got = {}
@@ -220,7 +221,7 @@ def encodings(work: str, quick: bool, solver: str = "cadical195") -> list[dict]:
 
 
 def main(argv: list[str] | None = None) -> int:
-    ap = argparse.ArgumentParser(prog="python -m satorder.bench_targets", description=__doc__,
+    ap = argparse.ArgumentParser(prog="python benchmarks/targets.py", description=__doc__,
                                  formatter_class=argparse.RawDescriptionHelpFormatter)
     ap.add_argument("--out", default="bench-results.json", help="JSON results file")
     ap.add_argument("--work", default="bench-work", help="folder for generated instances")

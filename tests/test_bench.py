@@ -13,7 +13,8 @@ import time
 
 import pytest
 
-from satorder.bench import runner as bench
+import satorder.bench as bench
+from satorder.bench import isolate
 from satorder.cli.main import main
 from satorder.errors import InputError
 
@@ -99,7 +100,7 @@ def test_wrong_answers_fail_their_check():
 def test_fresh_interpreter_path_stops_at_the_timeout_too():
     # the path Dask workers take (daemonic processes may not fork workers of their own): the
     # worker's own timer ends the run; ordinary rows are compared in the cluster test below
-    h = bench._run_subprocess(_task(os.path.join(SMALL, PLAIN[0]), "bench_plugins:hang",
+    h = isolate._run_subprocess(_task(os.path.join(SMALL, PLAIN[0]), "bench_plugins:hang",
                                     timeout=1.0))
     assert h["status"] == "timeout" and h["seconds"] == 1.0
 

@@ -244,7 +244,7 @@ def test_compiled_transitivity_check_finds_the_same_faults():
 
 
 def test_atomic_write_follows_umask_and_keeps_existing_mode(tmp_path):
-    from satorder.cli.common import atomic_write
+    from satorder.io.files import atomic_write
 
     old = os.umask(0o022)
     try:

@@ -18,7 +18,8 @@ from satorder.certify.derivation import check_derivation
 from satorder.cli.main import main
 from satorder.errors import CertificateError
 from satorder.explanation.derivation import build_derivation
-from satorder.explanation.explain import explain, requirements
+from satorder.explanation.explain import explain
+from satorder.explanation.requirements import requirements
 from satorder.sat.mus import RequirementOracle, minimal_core
 
 
@@ -373,7 +374,7 @@ def test_problems_beyond_the_oracle_use_the_sat_engine_core(conflict):
     check_derivation(e.core_json(), e.derivation_json())
     for rep in e.repairs:
         assert rep.verified
-        from satorder.explanation.explain import repaired_problem
+        from satorder.explanation.repairs import repaired_problem
 
         certify.check_order(repaired_problem(p, rep.drop), rep.succ)
 

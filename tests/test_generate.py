@@ -14,7 +14,7 @@ from order_reference import count_orientations, reference_feasible
 from satorder import Problem
 from satorder.certify import order as certify
 from satorder.cli.main import main
-from satorder.generate.families import (
+from satorder.generate import (
     FAMILIES,
     RECIPES,
     generate,

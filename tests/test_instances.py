@@ -13,7 +13,7 @@ from conftest import brute_force_orientable
 from order_reference import count_orientations, reference_feasible
 
 from satorder import read_problem
-from satorder.generate.families import RECIPES, make_suite
+from satorder.generate import RECIPES, make_suite
 from satorder.pipeline.solve import solve
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))

@@ -11,7 +11,8 @@ import pytest
 from conftest import brute_force_orientable
 
 from satorder import Problem
-from satorder.explanation.explain import check_obstruction, explain
+from satorder.explanation.checks import check_obstruction
+from satorder.explanation.explain import explain
 from satorder.graph.forcing import transitive_orientation
 from satorder.graph.obstruction import find_obstruction, is_minimal_obstruction
 

@@ -5,7 +5,7 @@ the runs then report the failure as rows instead of the server going down."""
 
 import importlib
 
-for _name in ("satorder.bench.runner", "satorder.pipeline.solve", "satorder.io.readers",
+for _name in ("satorder.bench.isolate", "satorder.pipeline.solve", "satorder.io.readers",
               "satorder.sat.engine", "pysat.solvers", "satorder.cli.main"):
     try:
         importlib.import_module(_name)

@@ -13,7 +13,7 @@ from rich.panel import Panel
 from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 from rich.table import Table
 
-from satorder.bench import runner as bench
+import satorder.bench as bench
 from satorder.cli.common import UsageError, check_output_path, err, out
 
 

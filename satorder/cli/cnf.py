@@ -11,7 +11,8 @@ from __future__ import annotations
 
 import sys
 
-from satorder.cli.common import atomic_write, check_output_path, err, load
+from satorder.cli.common import check_output_path, err, load
+from satorder.io.files import atomic_write
 from satorder.sat.encoding import Encoding
 
 

@@ -5,7 +5,6 @@ from __future__ import annotations
 import json
 import os
 import sys
-import tempfile
 
 from rich.console import Console
 
@@ -23,32 +22,6 @@ class UsageError(InputError):
 def load(path: str):
     """Read a problem file; errors surface as InputError (exit 2)."""
     return read_problem(path)
-
-
-def atomic_write(path: str, text: str) -> None:
-    """Write ``text`` to ``path`` through a temporary file in the same folder and a rename, so a
-    failure never leaves half a file and an existing file is replaced only when complete."""
-    folder = os.path.dirname(os.path.abspath(path)) or "."
-    if not os.path.isdir(folder):
-        raise InputError(f"{path}: folder {folder} does not exist; create it or choose another")
-    fd, tmp = tempfile.mkstemp(prefix=".satorder-", suffix=".tmp", dir=folder)
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8") as f:
-            f.write(text)
-        try:  # keep the mode of the file replaced, else the usual umask-based mode
-            mode = os.stat(path).st_mode & 0o7777
-        except FileNotFoundError:
-            umask = os.umask(0)
-            os.umask(umask)
-            mode = 0o666 & ~umask
-        os.chmod(tmp, mode)
-        os.replace(tmp, path)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except OSError:
-            pass
-        raise
 
 
 def dumps(doc) -> str:

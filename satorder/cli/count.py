@@ -4,16 +4,8 @@ from __future__ import annotations
 
 from rich.progress import Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
 
-from satorder.cli.common import (
-    UsageError,
-    atomic_write,
-    check_output_path,
-    dumps,
-    err,
-    load,
-    out,
-    print_json,
-)
+from satorder.cli.common import UsageError, check_output_path, dumps, err, load, out, print_json
+from satorder.io.files import atomic_write
 from satorder.pipeline.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
 
 TREE_LIMIT = 60  # items up to which the decomposition tree is drawn on screen

@@ -3,16 +3,9 @@ step-by-step derivation, an obstruction, and repairs."""
 
 from __future__ import annotations
 
-from satorder.cli.common import (
-    UsageError,
-    atomic_write,
-    check_output_path,
-    err,
-    load,
-    out,
-    print_json,
-)
+from satorder.cli.common import UsageError, check_output_path, err, load, out, print_json
 from satorder.explanation.explain import explain
+from satorder.io.files import atomic_write
 from satorder.render.explanation_svg import MAX_ITEMS, explanation_svg
 from satorder.render.explanation_text import print_explanation
 

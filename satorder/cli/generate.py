@@ -13,8 +13,9 @@ import shlex
 from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 from rich.table import Table
 
+import satorder.generate as gen
 from satorder.cli.common import UsageError, err, out
-from satorder.generate import families as gen
+from satorder.generate.suites import _specs
 
 
 def add_parser(sub):
@@ -67,7 +68,7 @@ def run(args) -> int:
         if not args.items:
             raise UsageError("--family needs --items N [N ...]")
         params = dict(_param(t) for t in args.set)
-        specs = gen._specs(args.family, args.items, args.seeds, args.format, **params)
+        specs = _specs(args.family, args.items, args.seeds, args.format, **params)
         if args.format == "edges":
             probe = gen.generate(args.family, min(args.items), args.seeds[0], **params)
             if not probe.is_plain:

@@ -5,8 +5,9 @@ from __future__ import annotations
 
 from rich.table import Table
 
-from satorder.cli.common import atomic_write, check_output_path, dumps, err, load, out, print_json
+from satorder.cli.common import check_output_path, dumps, err, load, out, print_json
 from satorder.errors import InputError
+from satorder.io.files import atomic_write
 from satorder.measure.summary import measure
 from satorder.pipeline.solve import ENGINES, solve
 

@@ -4,7 +4,8 @@ from __future__ import annotations
 
 import sys
 
-from satorder.cli.common import atomic_write, check_output_path, load, out
+from satorder.cli.common import check_output_path, load, out
+from satorder.io.files import atomic_write
 from satorder.pipeline.solve import ENGINES, solve
 from satorder.render.answer_text import print_answer
 

@@ -32,14 +32,21 @@ from __future__ import annotations
 
 import time
 from dataclasses import dataclass, field
-from itertools import combinations, product
 from typing import Any
 
 from satorder.certify import derivation as replay
 from satorder.certify import order as certify
-from satorder.certify.minimality import check_minimality_witnesses
 from satorder.errors import CertificateError
 from satorder.explanation import derivation as derivation
+from satorder.explanation.checks import check_core, check_obstruction, minimality_witnesses
+from satorder.explanation.repairs import (
+    REPAIR_SAT_ITEMS,
+    Repair,
+    _closure,
+    _local_repairs,
+    _verify_small_repair,
+)
+from satorder.explanation.requirements import _items_of, requirements
 from satorder.graph.forcing import ForcingResult, transitive_orientation
 from satorder.graph.obstruction import (
     chain_items,
@@ -57,21 +64,15 @@ from satorder.sat.mus import (
 )
 
 FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
+
+
 WHOLE_PROBLEM_ITEMS = 24  # up to this many items, smallest cores and repairs range over all
+
+
 ORACLE_ITEMS = 60  # up to this many items, the core is found by the all-triples oracle
-REPAIR_SAT_ITEMS = 3000  # side-constraint repairs re-solved (unordered pairs listed) up to this
-MINIMALITY_CHECK_ITEMS = 40  # all-triples re-solve of a core up to this many items
+
+
 SUMMARY_ITEMS = 200  # solve's summary shows a minimal core spanning up to this many items
-
-
-@dataclass
-class Repair:
-    """A minimal correction set: requirements to drop, and an order the repaired problem admits."""
-
-    drop: list[dict]
-    succ: list[set[int]] | None
-    verified: bool
-    note: str = ""
 
 
 @dataclass
@@ -144,77 +145,6 @@ class Explanation:
         return doc
 
 
-# ---------------------------------------------------------------------- requirements
-def requirements(problem: Problem, items=None) -> list[dict]:
-    """The hard requirements of ``problem`` as ``{"kind", "pair"}`` dicts, optionally only those
-    whose two items lie in ``items``.  A fixed arc stands for its own pair: the pair is not
-    listed again as comparable.  Under ``"others"`` the unordered pairs are enumerated, so
-    without ``items`` this is for small problems."""
-    keep = None if items is None else set(items)
-    fixed_pairs = {frozenset(a) for a in problem.fixed}
-    out: list[dict] = []
-
-    def inside(a, b):
-        return keep is None or (a in keep and b in keep)
-
-    if keep is None:
-        comp = problem.comparable_pairs()
-    else:
-        comp = ((a, b) for a in sorted(keep) for b in problem.adj[a] if a < b and b in keep)
-    for a, b in comp:
-        if frozenset((a, b)) not in fixed_pairs:
-            out.append({"kind": "comparable", "pair": (a, b)})
-    if keep is None:
-        inc = problem.incomparable_pairs()
-    else:
-        inc = ((a, b) for a, b in combinations(sorted(keep), 2)
-               if problem.must_be_unordered(a, b))
-    out += [{"kind": "incomparable", "pair": (a, b)} for a, b in inc]
-    out += [{"kind": "fixed", "pair": (a, b)} for a, b in problem.fixed if inside(a, b)]
-    out += [{"kind": "forbidden", "pair": (a, b)} for a, b in problem.forbidden if inside(a, b)]
-    return out
-
-
-def _items_of(reqs) -> list[int]:
-    return sorted({v for r in reqs for v in r["pair"]})
-
-
-# ---------------------------------------------------------------------- obstruction check
-def check_obstruction(problem: Problem, items: list[int]) -> None:
-    """Independently confirm that ``items`` induce a minimal non-orientable subgraph: a forcing
-    chain of the induced subgraph passes :func:`certify.check_forcing_chain`, and each
-    one-item-smaller subset has an orientation that passes :func:`certify.check_order`."""
-
-    def sub_problem(vs):
-        order, sub = induced_adjacency(problem.adj, vs)
-        return Problem(items=[problem.items[v] for v in order], adj=sub)
-
-    p = sub_problem(items)
-    res = transitive_orientation(p.adj)
-    if res.orientable:
-        raise CertificateError("the obstruction's items induce an orientable subgraph")
-    certify.check_forcing_chain(p, res.chain)
-    # an odd chordless cycle of length >= 5 is minimal by a published fact (Golumbic 1980,
-    # ch. 5: removing an item leaves paths, which are bipartite); checked structurally here
-    degrees = [len(nb) for nb in p.adj]
-    if len(items) >= 5 and len(items) % 2 == 1 and set(degrees) == {2}:
-        reach, todo = {0}, [0]
-        while todo:
-            for u in p.adj[todo.pop()]:
-                if u not in reach:
-                    reach.add(u)
-                    todo.append(u)
-        if len(reach) == len(items):
-            return
-    for k in range(len(items)):
-        q = sub_problem(items[:k] + items[k + 1:])
-        r = transitive_orientation(q.adj)
-        if not r.orientable:
-            raise CertificateError(
-                f"the obstruction is not minimal: {problem.items[items[k]]} can be dropped")
-        certify.check_order(q, r.successor_sets())
-
-
 def _chain_core(problem: Problem, items: list[int]) -> list[dict]:
     """Comparable pairs and unordered witness pairs of a forcing chain inside ``items``."""
     order, sub = induced_adjacency(problem.adj, items)
@@ -235,162 +165,6 @@ def _chain_core(problem: Problem, items: list[int]) -> list[dict]:
     return list(core.values())
 
 
-# ---------------------------------------------------------------------- repairs
-def repaired_problem(problem: Problem, drop: list[dict]) -> Problem:
-    """``problem`` with the requirements in ``drop`` removed (their pairs become open).  The
-    unordered pairs are listed explicitly, so this is for problems of modest size."""
-    adj = [set(s) for s in problem.adj]
-    if problem.incomparable is None:
-        inc = [set(range(problem.n)) - adj[a] - {a} for a in range(problem.n)]
-    else:
-        inc = [set(s) for s in problem.incomparable]
-    fixed, forbidden = list(problem.fixed), list(problem.forbidden)
-    for r in drop:
-        a, b = r["pair"]
-        if r["kind"] == "comparable":
-            adj[a].discard(b)
-            adj[b].discard(a)
-        elif r["kind"] == "incomparable":
-            inc[a].discard(b)
-            inc[b].discard(a)
-        elif r["kind"] == "fixed":
-            fixed.remove((a, b))
-            if not any({a, b} == {x, y} for x, y in fixed):
-                adj[a].discard(b)
-                adj[b].discard(a)
-        else:
-            forbidden.remove((a, b))
-    return problem.with_requirements(adj=adj, incomparable=inc, fixed=fixed,
-                                     forbidden=forbidden, prefer=[])
-
-
-def _closure(n: int, arcs) -> list[set[int]]:
-    succ: list[set[int]] = [set() for _ in range(n)]
-    for a, b in arcs:
-        succ[a].add(b)
-    return succ
-
-
-def _verify_small_repair(problem: Problem, oracle, universe, mcs) -> Repair:
-    drop = [oracle.requirements[k] for k in mcs]
-    ok, arcs = oracle.check([k for k in universe if k not in set(mcs)])
-    if not ok:
-        return Repair(drop, None, False, "the repaired problem is still infeasible")
-    succ = _closure(problem.n, arcs)  # the oracle's model is transitively closed
-    certify.check_order(repaired_problem(problem, drop), succ)
-    return Repair(drop, succ, True)
-
-
-def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int):
-    """For problems whose other pairs must all stay unordered: the dropped pairs become open, so
-    the repaired problem is feasible iff some choice of ordered/unordered for them leaves a
-    comparability graph.  Choices are tried (flipping every dropped pair first); an orientation
-    found is checked by :func:`certify.check_order` on that graph, which lies between the kept
-    comparable pairs and the kept pairs plus the open ones.
-
-    Returns ``(repair, blocker)``: ``blocker`` is a minimal obstruction of the first (flipped)
-    choice when no choice worked, i.e. where the remaining conflict lies."""
-    pairs = [tuple(r["pair"]) for r in drop if r["kind"] in ("comparable", "incomparable")]
-    was_edge = [r["kind"] == "comparable" for r in drop
-                if r["kind"] in ("comparable", "incomparable")]
-    if len(pairs) != len(drop):
-        return Repair(drop, None, False, "fixed or forbidden arcs: not checked here"), None
-    blocker = None
-    for tries, choice in enumerate(product((False, True), repeat=len(pairs))):
-        if tries >= max_tries:
-            break
-        adj = list(problem.adj)
-        for (a, b), edge_before, keep in zip(pairs, was_edge, choice):
-            edge = edge_before == keep  # choice False flips the pair
-            for x, y in ((a, b), (b, a)):
-                adj[x] = set(adj[x])
-                (adj[x].add if edge else adj[x].discard)(y)
-        res = transitive_orientation(adj)
-        if res.orientable:
-            succ = res.successor_sets()
-            certify.check_order(Problem(items=problem.items, adj=adj), succ)
-            return Repair(drop, succ, True), None
-        if blocker is None:
-            blocker = find_obstruction(adj, res)
-    return Repair(drop, None, False, "other conflicts remain after this change"), blocker
-
-
-def _key(r: dict) -> tuple:
-    return (r["kind"], tuple(r["pair"]))
-
-
-def _verify_general_repair(problem: Problem, drop: list[dict], deadline: float):
-    """Solve the repaired problem with the project's solver (its order is checked by
-    :func:`certify.check_order` inside :func:`satorder.solve.solve`); on failure the items of
-    the repaired problem's core show where the remaining conflict lies."""
-    from satorder.pipeline.solve import solve
-
-    left = deadline - time.monotonic()
-    if left <= 0:
-        return Repair(drop, None, False, "time limit reached"), None
-    ans = solve(repaired_problem(problem, drop), engine="sat", time_limit=left)
-    if ans.status == FEASIBLE:
-        return Repair(drop, ans.succ, True), None
-    if ans.status == INFEASIBLE and ans.core:
-        return (Repair(drop, None, False, "other conflicts remain after this change"),
-                _items_of(ans.core))
-    return Repair(drop, None, False, "no verdict within the time limit"), None
-
-
-def _local_repairs(problem: Problem, items: set[int], limit: int, deadline: float,
-                   say) -> tuple[list[Repair], list[str]]:
-    """Minimal correction sets for a problem too large for the whole-problem search.
-
-    Correction sets are enumerated over the requirements among a set of items ``U`` (first the
-    core's); each is checked on the whole problem.  One that works is a minimal correction set
-    of the whole problem too (a proper subset already fails on ``U``).  One that does not
-    reveals a further obstruction; its items join ``U`` and the enumeration restarts — an
-    implicit-hitting-set loop (Davies & Bacchus, "Solving MAXSAT by solving a sequence of
-    simpler MaxSAT instances", CP 2011).  The whole-problem check is the forcing algorithm
-    when every other pair must stay unordered, the SAT engine otherwise."""
-    items = set(items)
-    offered: dict[frozenset, Repair] = {}
-    rejected: set[frozenset] = set()
-    notes: list[str] = []
-    tries = 1 if problem.num_comparable > 200_000 else 16
-    plain = problem.incomparable is None and not problem.fixed and not problem.forbidden
-    while len(offered) < limit and time.monotonic() < deadline:
-        reqs = requirements(problem, items)
-        grew = False
-        with RequirementOracle(reqs) as oracle:
-            universe = list(range(len(reqs)))
-            found = correction_sets(oracle, universe, limit + len(rejected) + len(offered),
-                                    time_limit=max(0.1, deadline - time.monotonic()))
-        for mcs in found:
-            drop = [reqs[k] for k in mcs]
-            key = frozenset(map(_key, drop))
-            if key in offered or key in rejected:
-                continue
-            if time.monotonic() >= deadline or len(offered) >= limit:
-                break
-            say(f"checking repair {len(offered) + 1} on the whole problem")
-            if plain:
-                rep, blocker = _verify_plain_repair(problem, drop, tries)
-            else:
-                rep, blocker = _verify_general_repair(problem, drop, deadline)
-            if rep.verified:
-                offered[key] = rep
-                continue
-            rejected.add(key)
-            if blocker is not None and not set(blocker) <= items and len(items) < 60:
-                items |= set(blocker)
-                grew = True
-                break
-        if not grew:
-            break
-    if rejected:
-        notes.append(f"{len(rejected)} correction set(s) of the core's neighbourhood left out: "
-                     "dropping them does not make the whole problem feasible")
-    if len(offered) < limit and time.monotonic() >= deadline:
-        notes.append("repairs: time limit reached")
-    return sorted(offered.values(), key=lambda r: len(r.drop)), notes
-
-
 def _engine_core(problem: Problem, time_limit: float):
     """The project's solver on a problem too large for the all-triples oracle: ``"feasible"``
     (its order verified), an infeasible core over requirement dicts, or ``None``."""
@@ -406,57 +180,6 @@ def _engine_core(problem: Problem, time_limit: float):
         return None
     core = [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in ans.core]
     return core, bool(ans.stats.get("core", {}).get("minimal"))
-
-
-def forcing_witness(core: list[dict], k: int):
-    """An order meeting every member of ``core`` but member ``k``, from a transitive
-    orientation (Golumbic 1980, ch. 5): order exactly the pairs that must be ordered (plus the
-    pair of ``k`` when it is an unordered one) and nothing else.  Only for cores made of
-    comparable and unordered pairs; ``None`` when that graph has no transitive orientation."""
-    if any(r["kind"] not in ("comparable", "incomparable") for r in core):
-        return None
-    items = _items_of(core)
-    pos = {v: i for i, v in enumerate(items)}
-    adj: list[set[int]] = [set() for _ in items]
-    for j, r in enumerate(core):
-        if (r["kind"] == "comparable") != (j == k):
-            a, b = pos[r["pair"][0]], pos[r["pair"][1]]
-            adj[a].add(b)
-            adj[b].add(a)
-    res = transitive_orientation(adj)
-    if not res.orientable:
-        return None
-    return [(items[a], items[b]) for a, b in res.arcs()]  # transitively closed already
-
-
-def minimality_witnesses(core: list[dict]) -> dict[int, list]:
-    """One witness order per member of ``core`` (each meets all other members): from a
-    transitive orientation where one exists, otherwise from a SAT call.  Raises
-    :class:`CertificateError` when some member can be dropped (the core is not minimal)."""
-    witnesses = {k: w for k in range(len(core))
-                 if (w := forcing_witness(core, k)) is not None}
-    missing = [k for k in range(len(core)) if k not in witnesses]
-    if missing:
-        with core_oracle(core) as oracle:
-            everything = range(len(core))
-            for k in missing:
-                ok, arcs = oracle.check([j for j in everything if j != k])
-                if not ok:
-                    raise CertificateError(f"the core is not minimal: member {k} can be dropped")
-                witnesses[k] = arcs
-    return witnesses
-
-
-def check_core(problem: Problem, core: list[dict], replayed: bool, witnesses=None) -> None:
-    """Independent checks of a core: one witness order per member shows minimality
-    (:func:`satorder.core_check.check_minimality_witnesses`); infeasibility is shown by the
-    replayed derivation (``replayed``) and, for cores on few items, also re-solved by
-    :func:`satorder.certify.check_core_infeasible`."""
-    if witnesses is None:
-        witnesses = minimality_witnesses(core)
-    check_minimality_witnesses(problem, core, witnesses)
-    if not replayed or len(_items_of(core)) <= MINIMALITY_CHECK_ITEMS:
-        certify.check_core_infeasible(problem, core)
 
 
 def minimal_core_of(answer) -> list[dict] | None:
