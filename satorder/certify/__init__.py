@@ -6,3 +6,9 @@ plain solvers, numpy).  Never an engine (:mod:`satorder.graph`, :mod:`satorder.s
 :mod:`satorder.measure`, :mod:`satorder.explanation`), so that a bug in an engine cannot
 hide in its own check.
 """
+
+from satorder.certify.chain import check_forcing_chain
+from satorder.certify.core import check_core_infeasible
+from satorder.certify.order import check_order
+
+__all__ = ["check_core_infeasible", "check_forcing_chain", "check_order"]

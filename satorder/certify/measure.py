@@ -303,7 +303,7 @@ def check_dimension_at_least(succ, items, bound, chain=None) -> None:
             return
         if chain is None:
             raise CertificateError("a large dimension-3 witness needs a forcing chain")
-        from satorder.certify.order import check_forcing_chain
+        from satorder.certify.chain import check_forcing_chain
         from satorder.model.problem import Problem
 
         index = {x: i for i, x in enumerate(items)}

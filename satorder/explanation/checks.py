@@ -5,7 +5,7 @@ reject them.
 
 from __future__ import annotations
 
-from satorder.certify import order as certify
+from satorder import certify
 from satorder.certify.minimality import check_minimality_witnesses
 from satorder.errors import CertificateError
 from satorder.explanation import derivation as derivation

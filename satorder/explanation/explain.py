@@ -34,8 +34,8 @@ import time
 from dataclasses import dataclass, field
 from typing import Any
 
+from satorder import certify
 from satorder.certify import derivation as replay
-from satorder.certify import order as certify
 from satorder.errors import CertificateError
 from satorder.explanation import derivation as derivation
 from satorder.explanation.checks import check_core, check_obstruction, minimality_witnesses

@@ -9,7 +9,7 @@ import time
 from dataclasses import dataclass
 from itertools import product
 
-from satorder.certify import order as certify
+from satorder import certify
 from satorder.explanation import derivation as derivation
 from satorder.explanation.requirements import _items_of, requirements
 from satorder.graph.forcing import transitive_orientation

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import time
 
-from satorder.certify import order as certify
+from satorder import certify
 from satorder.errors import CertificateError, InputError
 from satorder.graph.forcing import transitive_orientation
 from satorder.model.answer import FEASIBLE, INFEASIBLE, Answer

@@ -30,7 +30,7 @@ import time
 from collections.abc import Iterator
 from dataclasses import dataclass
 
-from satorder.certify import order as certify
+from satorder import certify
 from satorder.model import order as order_ops
 from satorder.model.problem import Problem
 

@@ -12,8 +12,7 @@ import numpy as np
 import pytest
 from conftest import all_posets
 
-from satorder import Problem
-from satorder.certify import order as certify
+from satorder import Problem, certify
 from satorder.certify.derivation import check_derivation
 from satorder.cli.main import main
 from satorder.errors import CertificateError

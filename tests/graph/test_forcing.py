@@ -8,8 +8,7 @@ import networkx as nx
 import pytest
 from conftest import all_graphs, brute_force_orientable
 
-from satorder import Problem
-from satorder.certify import order as certify
+from satorder import Problem, certify
 from satorder.errors import CertificateError
 from satorder.graph.forcing import transitive_orientation
 from satorder.pipeline.solve import solve

@@ -11,8 +11,7 @@ import pytest
 from conftest import brute_force_orientable
 from order_reference import count_orientations, reference_feasible
 
-from satorder import Problem
-from satorder.certify import order as certify
+from satorder import Problem, certify
 from satorder.cli.main import main
 from satorder.generate import (
     FAMILIES,

@@ -18,7 +18,7 @@ from satorder.bench import isolate
 from satorder.cli.main import main
 from satorder.errors import InputError
 
-HERE = os.path.dirname(os.path.abspath(__file__))
+HERE = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))  # tests/, for bench_plugins
 ROOT = os.path.dirname(HERE)
 SMALL = os.path.join(ROOT, "instances", "small")
 PLAIN = ["000-complete-n3-s1.json", "006-bipartite-n8-s1.json", "011-series-parallel-n5-s2.json",

@@ -11,8 +11,7 @@ from conftest import all_graphs, all_posets
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from satorder import Problem
-from satorder.certify import order as certify
+from satorder import Problem, certify
 from satorder.errors import InputError
 from satorder.model.problem import ProblemBuilder
 from satorder.pipeline.solve import solve, solve_forcing, verify

@@ -13,8 +13,7 @@ from pysat.formula import CNF
 from pysat.solvers import Solver
 from test_sat import brute_force_feasible, random_problem
 
-from satorder import Problem
-from satorder.certify import order as certify
+from satorder import Problem, certify
 from satorder.cli.main import main
 from satorder.sat.direct import direct_encoding
 from satorder.sat.encoding import Encoding

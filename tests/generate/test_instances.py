@@ -16,7 +16,7 @@ from satorder import read_problem
 from satorder.generate import RECIPES, make_suite
 from satorder.pipeline.solve import solve
 
-ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+ROOT = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
 SUITES = ["small", "medium"]
 
 
