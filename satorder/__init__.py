@@ -3,7 +3,7 @@ why none exists) out.
 
 >>> import satorder
 >>> p = satorder.Problem.from_lists(comparable=[("kiln", "loom"), ("loom", "quay")])
->>> satorder.solve(p).status
+>>> satorder.pipeline.solve(p).status
 'feasible'
 """
 

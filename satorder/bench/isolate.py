@@ -9,7 +9,7 @@
   as it is written.  An interrupted run therefore leaves only complete rows (a torn last line
   from a hard kill is cut off on the next start), and rerunning with the same ``--out`` skips
   every (instance, back end) already there.
-* Every answer is checked by :func:`satorder.solve.verify` (the independent checks in
+* Every answer is checked by :func:`satorder.pipeline.solve.verify` (the independent checks in
   :mod:`satorder.certify`) in the worker, timed apart from the solve.
 * At the end: a summary per back end, and loud flags for disagreements between back ends, with
   a suite's ``manifest.json``, or with an answer's certificate check.

@@ -1,6 +1,7 @@
 """Independent check of a modular decomposition tree and of the count read from it.
 
-Written apart from :mod:`satorder.modular` (which builds the tree) and sharing no code with it:
+Written apart from :mod:`satorder.graph.modular` (which builds the tree) and sharing no code with
+it:
 it only walks the tree's nodes and the graph.  For every internal node with children
 ``C1 … Ck`` it checks that
 
@@ -11,7 +12,7 @@ it only walks the tree's nodes and the graph.  For every internal node with chil
 * a ``series`` node's children are pairwise joined, a ``parallel`` node's pairwise apart, and a
   ``prime`` node has at least four children whose quotient is connected, has a connected
   complement, and is a comparability graph whose edges form a single implication class
-  (decided by the forcing algorithm, :mod:`satorder.forcing`), so it has exactly two
+  (decided by the forcing algorithm, :mod:`satorder.graph.forcing`), so it has exactly two
   transitive orientations (Golumbic 1980, ch. 5: the orientations of a comparability graph are
   the independent choices of a direction per implication class pair).
 

@@ -1,4 +1,5 @@
-"""Independent checks for the figures of :mod:`satorder.measure` and :mod:`satorder.dimension`.
+"""Independent checks for the figures of :mod:`satorder.measure` and
+:mod:`satorder.measure.dimension`.
 
 Written apart from the code that finds the figures and sharing none of it: each figure is
 confirmed from its witness and its dual certificate only, using the order's successor sets.
@@ -18,7 +19,7 @@ Every check raises :class:`~satorder.errors.CertificateError` naming what is wro
   intersection is the order;
 * dimension lower bounds: ≥ 2 unless the order is a chain; ≥ 3 by a sub-order whose
   incomparability graph is not a comparability graph (brute force over its linear extensions
-  when small, else a Γ forcing chain checked by :func:`satorder.certify.check_forcing_chain`);
+  when small, else a Γ forcing chain checked by :func:`satorder.certify.chain.check_forcing_chain`);
   ≥ d ≥ 4 by re-solving "d − 1 orders realize the sub-order" with an encoding and SAT solver
   of this module's own.
 """
@@ -323,9 +324,10 @@ def check_dimension_at_least(succ, items, bound, chain=None) -> None:
 
 
 def check_dimension(succ, dim) -> None:
-    """A :class:`satorder.dimension.Dimension`: realizer (upper bound, when given) and witness
+    """A :class:`satorder.measure.dimension.Dimension`: realizer (upper bound, when given) and
+    witness
     (lower bound).  An upper bound without a realizer rests on the theorems cited in
-    :mod:`satorder.dimension` and is not checked here."""
+    :mod:`satorder.measure.dimension` and is not checked here."""
     n = len(succ)
     if dim.lower > dim.upper:
         raise CertificateError("dimension lower bound exceeds the upper bound")
@@ -344,7 +346,7 @@ def check_dimension(succ, dim) -> None:
 
 
 def check_measures(succ, m, weights=None) -> None:
-    """Every figure of a :class:`satorder.measure.Measures`; sets ``m.verified``."""
+    """Every figure of a :class:`satorder.measure.summary.Measures`; sets ``m.verified``."""
     check_height(succ, m.height)
     check_width(succ, m.width)
     check_hasse(succ, m.hasse)

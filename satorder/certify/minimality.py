@@ -5,8 +5,9 @@ the extractor hands over one *witness* per member: a relation on the core's item
 strict partial order and meets every other member.  This module checks each witness directly
 from the definitions (irreflexive; transitive, hence antisymmetric; each requirement met) and
 that every member is a requirement of the problem.  It shares no code with the extractor
-(:mod:`satorder.mus`).  Infeasibility of the core itself is shown separately, by the replayed
-derivation (:mod:`satorder.replay`) or :func:`satorder.certify.check_core_infeasible`.
+(:mod:`satorder.sat.mus`).  Infeasibility of the core itself is shown separately, by the replayed
+derivation (:mod:`satorder.certify.derivation`) or
+:func:`satorder.certify.core.check_core_infeasible`.
 
 >>> core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 0)}]
 >>> check_minimality_witnesses(None, core, {0: [(1, 0)], 1: [(0, 1)]})

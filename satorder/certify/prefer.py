@@ -1,6 +1,6 @@
 """Independent check of a claimed preference cost.
 
-Shares no code with the MaxSAT solver (:mod:`satorder.prefer`): it walks the problem's
+Shares no code with the MaxSAT solver (:mod:`satorder.sat.prefer`): it walks the problem's
 preferences against the order itself.
 """
 

@@ -99,9 +99,9 @@ def minimality_witnesses(core: list[dict]) -> dict[int, list]:
 
 def check_core(problem: Problem, core: list[dict], replayed: bool, witnesses=None) -> None:
     """Independent checks of a core: one witness order per member shows minimality
-    (:func:`satorder.core_check.check_minimality_witnesses`); infeasibility is shown by the
+    (:func:`satorder.certify.minimality.check_minimality_witnesses`); infeasibility is shown by the
     replayed derivation (``replayed``) and, for cores on few items, also re-solved by
-    :func:`satorder.certify.check_core_infeasible`."""
+    :func:`satorder.certify.core.check_core_infeasible`."""
     if witnesses is None:
         witnesses = minimality_witnesses(core)
     check_minimality_witnesses(problem, core, witnesses)

@@ -27,7 +27,7 @@ probing on comparable pairs, and case splits where probing is not enough (the DP
 Davis, Logemann & Loveland 1962).  The search is complete for infeasible cores: a branch where
 every comparable pair is oriented and no rule fires is closed under transitivity and meets every
 requirement, i.e. it is an order.  Only the steps the final contradiction depends on are kept.
-:mod:`satorder.replay` checks derivations independently of this module.
+:mod:`satorder.certify.derivation` checks derivations independently of this module.
 
 >>> core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 2)},
 ...         {"kind": "incomparable", "pair": (0, 2)}]

@@ -5,21 +5,22 @@ change?":
 
 * **core** — a minimal infeasible subset of the requirements (every other requirement dropped,
   unnamed pairs open; dropping any one member makes it feasible), found by deletion-based MUS
-  extraction (:mod:`satorder.mus`).  For problems whose non-comparable pairs must all stay
+  extraction (:mod:`satorder.sat.mus`).  For problems whose non-comparable pairs must all stay
   unordered, the search starts from the forcing chain of a minimal obstruction, so only the
   unordered pairs that justify forcing steps ever get a selector — never one per non-edge.
 * **obstruction** — when the comparable pairs alone admit no order: a minimal set of items whose
-  induced subgraph has no transitive orientation (:mod:`satorder.obstruction`).
+  induced subgraph has no transitive orientation (:mod:`satorder.graph.obstruction`).
 * **derivation** — numbered steps from the core to a contradiction
-  (:mod:`satorder.derivation`), replayed by the independent checker :mod:`satorder.replay`.
+  (:mod:`satorder.explanation.derivation`), replayed by the independent checker
+  :mod:`satorder.certify.derivation`.
 * **smallest** (optional) — a minimum-cardinality core by hitting-set duality, on small problems.
 * **repairs** (optional) — minimal correction sets, each verified by exhibiting an order for the
-  repaired problem that :func:`satorder.certify.check_order` accepts.
+  repaired problem that :func:`satorder.certify.order.check_order` accepts.
 
 Every core is checked by code that did not find it: its infeasibility by the replayed
-derivation (and, on up to 40 items, by :func:`satorder.certify.check_core_infeasible`, an
+derivation (and, on up to 40 items, by :func:`satorder.certify.core.check_core_infeasible`, an
 all-triples encoding with another solver), its minimality by one witness order per member
-(:mod:`satorder.core_check`).
+(:mod:`satorder.certify.minimality`).
 
 >>> from satorder import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("c", "d"), ("d", "e"), ("e", "a")])
@@ -183,7 +184,8 @@ def _engine_core(problem: Problem, time_limit: float):
 
 
 def minimal_core_of(answer) -> list[dict] | None:
-    """A verified minimal core for an infeasible :class:`~satorder.answer.Answer`, computed from
+    """A verified minimal core for an infeasible :class:`~satorder.model.answer.Answer`, computed
+    from
     its forcing chain (shrunk to a minimal obstruction first) or from the engine's core; ``None``
     when the answer carries neither, or the core spans too many items to re-check."""
     p = answer.problem

@@ -122,7 +122,8 @@ def _key(r: dict) -> tuple:
 
 def _verify_general_repair(problem: Problem, drop: list[dict], deadline: float):
     """Solve the repaired problem with the project's solver (its order is checked by
-    :func:`certify.check_order` inside :func:`satorder.solve.solve`); on failure the items of
+    :func:`certify.check_order` inside :func:`satorder.pipeline.solve.solve`); on failure the items
+    of
     the repaired problem's core show where the remaining conflict lies."""
     from satorder.pipeline.solve import solve
 

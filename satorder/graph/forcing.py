@@ -28,7 +28,7 @@ How it is computed here (near-linear work in practice):
   works), so the result is a transitive orientation.  The caller checks it independently
   (:mod:`satorder.certify`) anyway.
 
->>> from satorder.problem import Problem
+>>> from satorder.model.problem import Problem
 >>> res = transitive_orientation(Problem.from_lists(comparable=[("a", "b"), ("b", "c")]).adj)
 >>> res.orientable, sorted(res.arcs())
 (True, [(0, 1), (2, 1)])

@@ -408,7 +408,7 @@ def count_transitive_orientations(adj: list[set[int]], tree: ModuleNode | None =
     decomposition of k! for a series node with k children and 2 for a prime node (a prime
     comparability graph has exactly two transitive orientations, one the reverse of the other;
     Gallai 1967), or 0 when the graph is not a comparability graph (decided by the forcing
-    algorithm, :mod:`satorder.forcing`).
+    algorithm, :mod:`satorder.graph.forcing`).
 
     >>> count_transitive_orientations([set(range(6)) - {i} for i in range(6)])  # K6
     720

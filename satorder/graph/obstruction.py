@@ -11,7 +11,7 @@ length at least 5 are the simplest.
 Method, fast on large graphs:
 
 1. **Localise.**  A forcing chain from an arc to its reverse (the conflict certificate of
-   :func:`satorder.forcing.transitive_orientation`) uses only comparable pairs and unordered
+   :func:`satorder.graph.forcing.transitive_orientation`) uses only comparable pairs and unordered
    witness pairs among its own items, so the items of the chain already induce a subgraph with
    the same chain: not orientable.  Only this step looks at the whole graph, and the caller may
    pass the forcing result it already has.
@@ -22,7 +22,7 @@ Method, fast on large graphs:
    result is minimal: each one-item-smaller subset is orientable.
 
 >>> import networkx as nx
->>> from satorder.problem import Problem
+>>> from satorder.model.problem import Problem
 >>> g = nx.cycle_graph(5)
 >>> g.add_edges_from([(0, 5), (5, 6)])          # a pendant path does not matter
 >>> sorted(find_obstruction(Problem.from_networkx(g).adj))

@@ -1,8 +1,8 @@
 """Figures of a strict partial order, each with a witness and a dual certificate.
 
 An order is ``succ: list[set[int]]`` (transitively closed successor sets, see
-:mod:`satorder.order`).  Every figure comes with something that proves it optimal, so that the
-independent checker (:mod:`satorder.certify_measure`) can confirm it without re-running the
+:mod:`satorder.model.order`).  Every figure comes with something that proves it optimal, so that the
+independent checker (:mod:`satorder.certify.measure`) can confirm it without re-running the
 algorithm:
 
 * **height** — items in a longest chain, with one such chain and a partition into that many

@@ -35,7 +35,7 @@ class Measures:
     width: Figure
     hasse: list[tuple[int, int]]
     linear_extension: list[int]
-    dimension: object  # satorder.dimension.Dimension
+    dimension: object  # satorder.measure.dimension.Dimension
     weighted_chain: Figure | None = None
     weighted_antichain: Figure | None = None
     stats: dict = field(default_factory=dict)

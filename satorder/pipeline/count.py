@@ -17,12 +17,12 @@ Two methods, and the result says which one was used:
   of its two orientations agree with its arcs.  Python integers keep any count exact
   (K_100 has 100! answers).
 * ``"enumeration"`` — problems with open pairs: every answer is produced by the SAT engine with
-  blocking clauses (:mod:`satorder.enumeration`) and certified; with ``limit`` or
+  blocking clauses (:mod:`satorder.sat.enumeration`) and certified; with ``limit`` or
   ``time_limit`` reached first, the count is a lower bound (``exact`` is False).
 
 Preferences rank answers but rule none out, so they do not change the count.
 
->>> from satorder.problem import Problem
+>>> from satorder.model.problem import Problem
 >>> count_answers(Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")])).count
 6
 >>> count_answers(Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")],

@@ -1,7 +1,7 @@
 """The solving entry point: choose an engine, run it, certify the answer.
 
 ``solve(problem)`` sends plain problems (comparable pairs only, every other pair unordered) to
-the forcing algorithm (:mod:`satorder.forcing`) and everything else to the SAT engine.  Every
+the forcing algorithm (:mod:`satorder.graph.forcing`) and everything else to the SAT engine.  Every
 answer passes through :mod:`satorder.certify` before it is returned, unless ``verify=False``.
 """
 
@@ -100,7 +100,7 @@ def solve(
         raise ValueError(f"unknown engine {engine!r}; choose one of {', '.join(ENGINES)}")
     if engine == "auto":
         engine = "forcing" if problem.is_plain else "sat"
-    if problem.prefer and engine == "sat":  # weighted preferences: MaxSAT (satorder.prefer)
+    if problem.prefer and engine == "sat":  # weighted preferences: MaxSAT (satorder.sat.prefer)
         from satorder.sat.prefer import solve_preferences
 
         ans = solve_preferences(problem, solver=solver, time_limit=time_limit)

@@ -4,7 +4,7 @@ answer count (series: k!, prime: 2, parallel: 1).
 Layout: leaves left to right in tree order, one row per depth, every internal node centred
 over its children.
 
->>> from satorder.modular import modular_decomposition
+>>> from satorder.graph.modular import modular_decomposition
 >>> svg = decomposition_svg(modular_decomposition([{1}, {0}, set()]), ["kiln", "loom", "quay"])
 >>> svg.startswith("<svg") and "parallel" in svg and "quay" in svg
 True

@@ -9,7 +9,7 @@ core's comparable pairs, so a cycle-shaped obstruction appears as a polygon.  Dr
 * obstruction items filled orange.
 
 >>> from satorder import Problem
->>> from satorder.explain import explain
+>>> from satorder.explanation.explain import explain
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("c", "d"), ("d", "e"), ("e", "a")])
 >>> svg = explanation_svg(explain(p))
 >>> svg.startswith("<svg") and ">c<" in svg
@@ -58,7 +58,7 @@ def _walk_order(items: list[int], core: list[dict]) -> list[int]:
 
 
 def explanation_svg(expl, title: str | None = None) -> str:
-    """SVG text picturing ``expl`` (an :class:`~satorder.explain.Explanation`)."""
+    """SVG text picturing ``expl`` (an :class:`~satorder.explanation.explain.Explanation`)."""
     p = expl.problem
     names = p.items
     core = expl.core or []

@@ -2,7 +2,8 @@
 drawing.
 
 * **Layered Hasse diagram** (the covering pairs, lower item below).  Items sit on the level of
-  the longest chain ending at them (the Mirsky levels of :func:`satorder.measure.height`); the
+  the longest chain ending at them (the Mirsky levels of :func:`satorder.measure.figures.height`);
+  the
   order inside each level is improved by barycentre sweeps (Sugiyama, Tagawa & Toda 1981), and
   a wide level wraps onto several rows of its band.  A longest chain is drawn in orange and a
   largest antichain outlined in blue.

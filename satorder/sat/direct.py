@@ -76,7 +76,7 @@ class DirectEncoding:
 def direct_encoding(problem: Problem) -> DirectEncoding:
     """The baseline encoding over every ordered pair and item triple (see :class:`DirectEncoding`).
 
-    >>> from satorder.problem import Problem
+    >>> from satorder.model.problem import Problem
     >>> d = direct_encoding(Problem.from_lists(comparable=[("a", "b"), ("b", "c")]))
     >>> d.nv, d.num_clauses
     (6, 13)
@@ -86,7 +86,7 @@ def direct_encoding(problem: Problem) -> DirectEncoding:
 
 def solve_direct(problem: Problem, solver: str | None = None,
                  time_limit: float | None = None) -> Answer:
-    """Solve with the textbook encoding (:func:`satorder.encode.direct_encoding`), the baseline
+    """Solve with the textbook encoding (:func:`satorder.sat.direct.direct_encoding`), the baseline
     for benchmarks.  Infeasible answers carry no core (``stats["note"]`` says so), so they are
     for measuring, not for showing."""
     from pysat.solvers import Solver

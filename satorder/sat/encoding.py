@@ -52,7 +52,7 @@ Interface (stable; explain, count, MaxSAT and benchmark code build on it)
   selectors: see :mod:`satorder.sat`).
 * ``to_dimacs()`` → DIMACS CNF text with ``c`` lines naming each variable and selector.
 
->>> from satorder.problem import Problem
+>>> from satorder.model.problem import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c")], incomparable=[("a", "c")])
 >>> enc = Encoding(p)
 >>> enc.lt(0, 1) == enc.lt(2, 1), enc.lt(0, 2)  # Γ: a<b forces c<b; a, c stay unordered

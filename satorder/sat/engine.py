@@ -2,7 +2,7 @@
 time limits, clean Ctrl-C, and cores over selector literals.
 
 Method: a CDCL solver (CaDiCaL 1.9.5 by default; Biere et al., SAT Competition 2023 system
-descriptions) decides the compact CNF of :mod:`satorder.encode`; each model is decoded into a
+descriptions) decides the compact CNF of :mod:`satorder.sat.encoding`; each model is decoded into a
 relation, and every transitivity clause the relation violates is added before solving again
 (lazy clause generation, common practice for order encodings) until the model is a strict
 partial order.  Infeasible problems get a *core* of requirements, found in three ways, cheapest
@@ -26,14 +26,14 @@ Interface (stable)
   ``assumptions`` are extra literals (e.g. for enumeration or MaxSAT-style search).
 * ``core()`` → requirement keys of the last refutation; ``core_literals()`` → raw literals.
 * ``add_clause(clause)`` → add a permanent clause (e.g. a blocking clause); ``enc`` is the
-  :class:`~satorder.encode.Encoding`; ``stats`` counts variables, clauses, rounds, seconds.
+  :class:`~satorder.sat.encoding.Encoding`; ``stats`` counts variables, clauses, rounds, seconds.
 * Close it with ``close()`` or use ``with SatSession(...) as s:``.
 
 ``solve_sat(problem, solver=None, time_limit=None) -> Answer`` — the engine behind
 ``satorder solve --engine sat``.  ``SOLVERS`` lists the back-end names; ``resolve_solver(name)``
 validates one.
 
->>> from satorder.problem import Problem
+>>> from satorder.model.problem import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b")], incomparable=[("b", "c")],
 ...                        fixed=[("b", "a")])
 >>> ans = solve_sat(p)
@@ -78,7 +78,7 @@ def _is_keyboard(exc: BaseException) -> bool:
 
 
 class SatSession:
-    """A python-sat solver fed by an :class:`~satorder.encode.Encoding`, with the lazy
+    """A python-sat solver fed by an :class:`~satorder.sat.encoding.Encoding`, with the lazy
     transitivity loop; see the module docstring for the interface."""
 
     def __init__(self, problem: Problem, solver: str | None = None, selectors: bool = False,
@@ -300,7 +300,8 @@ def solve_sat(problem: Problem, solver: str | None = None,
               time_limit: float | None = None) -> Answer:
     """Solve any problem with the SAT engine; infeasible answers carry a core.
 
-    The answer is not yet verified; :func:`satorder.solve.solve` runs the independent checks.
+    The answer is not yet verified; :func:`satorder.pipeline.solve.solve` runs the independent
+    checks.
     """
     t0 = time.perf_counter()
     deadline = None if time_limit is None else time.monotonic() + time_limit

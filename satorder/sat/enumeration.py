@@ -11,14 +11,14 @@ Two details make this count orders rather than models:
   holds ``¬(a<b)``, for a pair that may be ordered but is not it holds ``(a<b) ∨ (b<a)``.
   Distinct answers differ on some pair, so none is blocked by another's clause, and no answer
   comes twice.
-* The encoding (:mod:`satorder.encode`) adds transitivity lazily and creates variables of open
+* The encoding (:mod:`satorder.sat.encoding`) adds transitivity lazily and creates variables of open
   pairs on demand; here every open pair gets its variables up front (an open pair without a
   variable could never be ordered), and each model is refined by the session's lazy loop until it
   is a strict partial order before it is reported.
 
-Every order is checked by :func:`satorder.certify.check_order` before it is yielded.
+Every order is checked by :func:`satorder.certify.order.check_order` before it is yielded.
 
->>> from satorder.problem import Problem
+>>> from satorder.model.problem import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c")])      # a path: 2 answers
 >>> sorted(sorted(o.pairs) for o in enumerate_orders(p))
 [[(0, 1), (2, 1)], [(1, 0), (1, 2)]]

@@ -129,7 +129,8 @@ class RequirementOracle:
 
 class SessionOracle:
     """The same ``check`` interface over the SAT engine's compact encoding with lazy
-    transitivity (:class:`satorder.sat.SatSession` with selectors), for requirement sets whose
+    transitivity (:class:`satorder.sat.engine.SatSession` with selectors), for requirement sets
+    whose
     items are too many for the all-triples :class:`RequirementOracle`.  The requirements are
     posed as a problem of their own: only their pairs are comparable or unordered, all other
     pairs open."""

@@ -1,7 +1,7 @@
 """Weighted preferences: an order meeting every hard requirement with the least total weight of
 unmet preferences (MaxSAT).
 
-Method.  Hard clauses are the compact encoding of :mod:`satorder.encode`; each preference
+Method.  Hard clauses are the compact encoding of :mod:`satorder.sat.encoding`; each preference
 ``a before b`` with weight ``w`` is a soft unit clause ``(a<b)`` of weight ``w``.  The weighted
 MaxSAT problem is solved by RC2, the core-guided solver shipped with python-sat (Ignatiev,
 Morgado & Marques-Silva, "RC2: an efficient MaxSAT solver", JSAT 11, 2019).  Transitivity is
@@ -18,7 +18,7 @@ the weights of the cores it has relaxed, a bound for the relaxation and so for t
 A preference on a pair that must stay unordered, or against a fixed arc, can never be met; it
 simply adds its weight to every answer.
 
->>> from satorder.problem import Problem
+>>> from satorder.model.problem import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c")],
 ...                        prefer=[("a", "b", 2), ("b", "c", 3)])
 >>> ans = solve_preferences(p)
@@ -47,7 +47,8 @@ def solve_preferences(problem: Problem, solver: str | None = None,
                       time_limit: float | None = None) -> Answer:
     """Solve ``problem`` minimising the weight of unmet preferences; see the module docstring.
 
-    The answer is not yet verified; :func:`satorder.solve.solve` runs the independent checks
+    The answer is not yet verified; :func:`satorder.pipeline.solve.solve` runs the independent
+    checks
     (the order against every requirement, the cost against the preferences).
     """
     t0 = time.perf_counter()

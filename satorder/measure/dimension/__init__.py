@@ -14,7 +14,7 @@ intersection is P (Dushnik & Miller 1941).  How it is found here:
 2. **Dimension ≤ 2 test on each remaining part** (connected, co-connected).  P has dimension
    ≤ 2 exactly when its incomparability graph is a comparability graph (Dushnik & Miller 1941);
    the part's incomparability graph is built and handed to the forcing algorithm
-   (:mod:`satorder.forcing`).  A transitive orientation Q of it gives the realizer
+   (:mod:`satorder.graph.forcing`).  A transitive orientation Q of it gives the realizer
    ``L1 = P ∪ Q`` and ``L2 = P ∪ Q⁻¹``: an item's position in ``L1`` is the number of items
    below it in P plus the number before it in Q.  When no orientation exists, the forcing
    chain names a sub-order of dimension ≥ 3, which is then shrunk item by item to a small one.

@@ -15,7 +15,7 @@ class Dimension:
     upper bound comes from the theorems cited in the module doc).
     ``witness``: items of a sub-order whose dimension is at least ``witness_lower`` (the lower
     bound's certificate when that is ≥ 3), ``witness_chain`` a forcing chain in its
-    incomparability graph (Γ steps, see :mod:`satorder.forcing`) when ``witness_lower`` is 3.
+    incomparability graph (Γ steps, see :mod:`satorder.graph.forcing`) when ``witness_lower`` is 3.
     """
 
     status: str
