@@ -10,8 +10,8 @@ from test_count import _POSETS, brute_count, random_problem
 
 from satorder import Problem
 from satorder.certify.order import check_order
-from satorder.errors import CertificateError
 from satorder.cli.main import main
+from satorder.errors import CertificateError
 from satorder.sat.enumeration import EnumerationEnd, enumerate_orders
 
 
