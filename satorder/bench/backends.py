@@ -9,6 +9,7 @@ import resource
 import time
 
 from satorder.errors import CertificateError, InputError
+from satorder.model.requirement import INFEASIBLE
 
 
 # --------------------------------------------------------------------------- back ends
@@ -129,7 +130,7 @@ def execute(task: dict) -> dict:
                    seconds=round(time.perf_counter() - t0, 6))
         return row
     row["seconds"] = round(time.perf_counter() - t0, 6)
-    row["status"] = ans.status
+    row["status"] = str(ans.status)  # rows hold plain JSON values
     stats = ans.stats if isinstance(ans.stats, dict) else {}
     row["variables"] = _find_stat(stats, "variables", "vars", "num_vars")
     row["clauses"] = _find_stat(stats, "clauses", "num_clauses")
@@ -141,8 +142,8 @@ def execute(task: dict) -> dict:
         verify(ans)
         # an infeasible verdict is trusted only with a certificate the checks could replay
         row["verified"] = bool(ans.verified) and (
-            ans.status != "infeasible" or bool(ans.chain) or bool(ans.core))
-        if ans.status == "infeasible" and not row["verified"]:
+            ans.status != INFEASIBLE or bool(ans.chain) or bool(ans.core))
+        if ans.status == INFEASIBLE and not row["verified"]:
             row["note"] = "infeasible without a conflict chain or core to check"
     except CertificateError as exc:
         row["verified"] = False

@@ -8,11 +8,13 @@ import json
 import os
 
 from satorder.errors import InputError
+from satorder.model.requirement import Status
 
-SOLVED = ("feasible", "infeasible")
+# a row's status: a verdict (Status) or what happened to the run instead
+SOLVED = (Status.FEASIBLE.value, Status.INFEASIBLE.value)
 
 
-UNSOLVED = ("timeout", "unknown")
+UNSOLVED = ("timeout", Status.UNKNOWN.value)
 
 
 FAILED = ("error", "crash")

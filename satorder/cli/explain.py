@@ -6,6 +6,7 @@ from __future__ import annotations
 from satorder.cli.common import UsageError, check_output_path, err, load, out, print_json
 from satorder.explanation.explain import explain
 from satorder.io.files import atomic_write
+from satorder.model.requirement import INFEASIBLE, UNKNOWN
 from satorder.render.explanation_svg import MAX_ITEMS, explanation_svg
 from satorder.render.explanation_text import print_explanation
 
@@ -40,7 +41,7 @@ def run(args) -> int:
                        progress=lambda stage: status.update(f"explaining: {stage}…"))
     drawn = False
     if args.draw:
-        if expl.status != "infeasible":
+        if expl.status != INFEASIBLE:
             err.print(f"satorder: nothing to draw: the problem is {expl.status}", markup=False)
         elif len(expl.involved_items()) > MAX_ITEMS:
             err.print(f"satorder: no picture: the core spans {len(expl.involved_items())} items, "
@@ -54,4 +55,4 @@ def run(args) -> int:
         print_explanation(expl, out, file=args.file)
         if drawn:
             out.print(f"Picture written to {args.draw}")
-    return 3 if expl.status == "unknown" else 0
+    return 3 if expl.status == UNKNOWN else 0

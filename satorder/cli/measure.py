@@ -9,6 +9,7 @@ from satorder.cli.common import check_output_path, dumps, err, load, out, print_
 from satorder.errors import InputError
 from satorder.io.files import atomic_write
 from satorder.measure.summary import measure
+from satorder.model.requirement import UNKNOWN
 from satorder.pipeline.solve import ENGINES, solve
 
 SHOW = 12  # items listed per witness on screen
@@ -77,7 +78,7 @@ def run(args) -> int:
         else:
             out.print(f"[bold red]{ans.status.upper()}[/]: no order to measure. Run "
                       f"[bold]satorder solve {args.file}[/] to see why.")
-        return 3 if ans.status == "unknown" else 0
+        return 3 if ans.status == UNKNOWN else 0
     weights = problem.weights
     with err.status("measuring…") as status:
         m = measure(ans.succ, weights=weights, sat_limit=args.sat_limit,

@@ -6,6 +6,7 @@ import sys
 
 from satorder.cli.common import check_output_path, load, out
 from satorder.io.files import atomic_write
+from satorder.model.requirement import INFEASIBLE, UNKNOWN
 from satorder.pipeline.solve import ENGINES, solve
 from satorder.render.answer_text import print_answer
 
@@ -40,7 +41,7 @@ def run(args) -> int:
         sys.stdout.write(text)
         sys.stdout.flush()
     else:
-        if ans.status == "infeasible":  # one-screen summary: a minimal core of the requirements
+        if ans.status == INFEASIBLE:  # one-screen summary: a minimal core of the requirements
             from satorder.explanation.explain import minimal_core_of
 
             core = minimal_core_of(ans)
@@ -48,4 +49,4 @@ def run(args) -> int:
                 ans.core = core
                 ans.stats["minimal_core"] = True
         print_answer(ans, out, hint_file=args.file)
-    return 3 if ans.status == "unknown" else 0
+    return 3 if ans.status == UNKNOWN else 0

@@ -56,6 +56,7 @@ from satorder.graph.obstruction import (
     minimise_obstruction,
 )
 from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN, Status
 from satorder.sat.mus import (
     RequirementOracle,
     core_oracle,
@@ -63,9 +64,6 @@ from satorder.sat.mus import (
     minimal_core,
     smallest_core,
 )
-
-FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
-
 
 WHOLE_PROBLEM_ITEMS = 24  # up to this many items, smallest cores and repairs range over all
 
@@ -81,7 +79,7 @@ class Explanation:
     """The outcome of :func:`explain` (requirements use item ids; see :meth:`to_json`)."""
 
     problem: Problem
-    status: str
+    status: Status
     core: list[dict] | None = None
     obstruction: list[int] | None = None
     steps: list[derivation.Step] | None = None
@@ -90,6 +88,9 @@ class Explanation:
     notes: list[str] = field(default_factory=list)
     verified: bool = False
     stats: dict[str, Any] = field(default_factory=dict)
+
+    def __post_init__(self) -> None:
+        self.status = Status(self.status)
 
     def involved_items(self) -> list[int]:
         """Items named by the core or the obstruction."""

@@ -16,8 +16,8 @@ from satorder.graph.forcing import transitive_orientation
 from satorder.graph.obstruction import (
     find_obstruction,
 )
-from satorder.model.answer import FEASIBLE, INFEASIBLE
 from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE
 from satorder.sat.mus import (
     RequirementOracle,
     correction_sets,

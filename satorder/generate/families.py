@@ -56,8 +56,6 @@ from bisect import bisect_right
 
 from satorder.errors import InputError
 from satorder.generate.instance import (
-    FEASIBLE,
-    INFEASIBLE,
     Instance,
     _bernoulli_pairs,
     _components_with_edges,
@@ -66,6 +64,7 @@ from satorder.generate.instance import (
     _neighbours,
     _order_pairs,
 )
+from satorder.model.requirement import FEASIBLE, INFEASIBLE
 
 
 # --------------------------------------------------------------------------- plain families

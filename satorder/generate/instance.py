@@ -10,7 +10,7 @@ import random
 from dataclasses import dataclass, field
 from typing import Any
 
-FEASIBLE, INFEASIBLE = "feasible", "infeasible"
+from satorder.model.requirement import Status
 
 
 @dataclass
@@ -33,7 +33,7 @@ class Instance:
     fixed: list[tuple[int, int]] = field(default_factory=list)
     forbidden: list[tuple[int, int]] = field(default_factory=list)
     prefer: list[tuple[int, int, int]] = field(default_factory=list)
-    expected_status: str | None = None
+    expected_status: Status | None = None
     expected_count: int | None = None
     expected_cost: int | None = None
     cost_at_most: int | None = None

@@ -7,22 +7,22 @@ from typing import Any
 
 from satorder.model import order as order_ops
 from satorder.model.problem import Problem
-
-FEASIBLE, INFEASIBLE, UNKNOWN = "feasible", "infeasible", "unknown"
+from satorder.model.requirement import FEASIBLE, Status
 
 
 @dataclass
 class Answer:
     """Result of solving a problem.
 
-    ``succ`` holds the order as successor sets (transitively closed) when ``status`` is
-    ``"feasible"``; ``chain`` holds a forcing-chain conflict certificate and ``core`` a list of
+    ``status`` is a :class:`~satorder.model.requirement.Status` (a string given here is turned
+    into one).  ``succ`` holds the order as successor sets (transitively closed) when ``status``
+    is ``feasible``; ``chain`` holds a forcing-chain conflict certificate and ``core`` a list of
     requirements ``{"kind", "pair"}`` (item ids) that cannot hold together, when infeasible.
     ``verified`` is set only by the independent checks in :mod:`satorder.certify`.
     """
 
     problem: Problem
-    status: str
+    status: Status
     engine: str
     succ: list[set[int]] | None = None
     chain: list | None = None
@@ -33,6 +33,9 @@ class Answer:
     unmet: list[tuple[int, int, int]] | None = None
     stats: dict[str, Any] = field(default_factory=dict)
     verified: bool = False
+
+    def __post_init__(self) -> None:
+        self.status = Status(self.status)
 
     @property
     def feasible(self) -> bool:

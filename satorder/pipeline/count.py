@@ -47,6 +47,7 @@ from satorder.graph.modular import (
     quotient,
 )
 from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE
 
 DECOMPOSITION, ENUMERATION = "modular-decomposition", "enumeration"
 MAX_DOWNSETS = 2_000_000  # beyond this many states a series node's arcs are too many to count
@@ -284,11 +285,11 @@ def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int
     hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
     ans = solve(hard, solver=solver)
     checks = []
-    if ans.status == "feasible":
+    if ans.status == FEASIBLE:
         if result.exact and result.count == 0:
             raise CertificateError("count is 0 but the solver found a certified answer")
         checks.append("a certified answer exists")
-    elif ans.status == "infeasible":
+    elif ans.status == INFEASIBLE:
         if result.count != 0:
             raise CertificateError(f"count is {result.count} but the problem is infeasible")
         checks.append("the solver certified that no answer exists")

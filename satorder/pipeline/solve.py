@@ -12,8 +12,9 @@ import time
 from satorder import certify
 from satorder.errors import CertificateError, InputError
 from satorder.graph.forcing import transitive_orientation
-from satorder.model.answer import FEASIBLE, INFEASIBLE, Answer
+from satorder.model.answer import Answer
 from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
 
 ENGINES = ("auto", "forcing", "sat", "both")
 
@@ -148,7 +149,7 @@ def _both(problem: Problem, solver, time_limit, verify_answer: bool) -> Answer:
             expected = FEASIBLE
         except CertificateError:
             expected = None  # forcing's orientation breaks an arc; another one may not
-    if b.status != "unknown" and expected is not None and b.status != expected:
+    if b.status != UNKNOWN and expected is not None and b.status != expected:
         raise EngineDisagreement(
             f"forcing says {expected}, SAT says {b.status} on {problem.source}"
         )

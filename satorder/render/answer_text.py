@@ -6,7 +6,8 @@ from rich.console import Console
 from rich.table import Table
 
 from satorder.measure.figures import height
-from satorder.model.answer import FEASIBLE, INFEASIBLE, Answer
+from satorder.model.answer import Answer
+from satorder.model.requirement import FEASIBLE, INFEASIBLE
 
 MAX_ROWS = 40
 
@@ -29,7 +30,7 @@ def print_answer(ans: Answer, console: Console, hint_file: str | None = None) ->
     p = ans.problem
     names = p.items
     check = "[green]verified[/]" if ans.verified else "[red]not verified[/]"
-    colour = {"feasible": "green", "infeasible": "red"}.get(ans.status, "yellow")
+    colour = {FEASIBLE: "green", INFEASIBLE: "red"}.get(ans.status, "yellow")
     console.print(
         f"[bold {colour}]{ans.status.upper()}[/]  {p.n} items, {p.num_comparable} comparable "
         f"pairs  (engine: {ans.engine}, {check})"

@@ -21,6 +21,7 @@ from __future__ import annotations
 import math
 from html import escape
 
+from satorder.model.requirement import INFEASIBLE
 from satorder.render.order_svg import svg_start
 
 MAX_ITEMS = 80
@@ -91,7 +92,7 @@ def explanation_svg(expl, title: str | None = None) -> str:
     out.append("</defs>")
     heading = title or (
         f"Why no order exists: a minimal core of {len(core)} requirements"
-        if expl.status == "infeasible" else f"Status: {expl.status}"
+        if expl.status == INFEASIBLE else f"Status: {expl.status}"
     )
     out.append(f'<text x="{width / 2:.0f}" y="32" text-anchor="middle" font-size="17" '
                f'font-weight="bold">{escape(heading)}</text>')

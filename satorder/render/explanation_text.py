@@ -7,6 +7,7 @@ from rich.console import Console
 from rich.table import Table
 
 from satorder.explanation.derivation import describe
+from satorder.model.requirement import FEASIBLE, INFEASIBLE
 
 MAX_STEPS = 120
 MAX_ORDER_PAIRS = 12
@@ -43,14 +44,14 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
     p = expl.problem
     names = p.items
     check = "[green]verified[/]" if expl.verified else "[red]not verified[/]"
-    colour = {"feasible": "green", "infeasible": "red"}.get(expl.status, "yellow")
+    colour = {FEASIBLE: "green", INFEASIBLE: "red"}.get(expl.status, "yellow")
     console.print(f"[bold {colour}]{expl.status.upper()}[/]  {p.n} items, "
                   f"{p.num_comparable} comparable pairs  ({check})")
-    if expl.status == "feasible":
+    if expl.status == FEASIBLE:
         hint = f" Run [bold]satorder solve {file}[/] to see it." if file else ""
         console.print(f"An order meeting every requirement exists; nothing to explain.{hint}")
         return
-    if expl.status != "infeasible":
+    if expl.status != INFEASIBLE:
         console.print("No verdict within the limits.")
         return
     core = expl.core or []

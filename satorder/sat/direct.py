@@ -12,8 +12,9 @@ from __future__ import annotations
 import time
 from collections.abc import Iterable, Iterator
 
-from satorder.model.answer import FEASIBLE, INFEASIBLE, UNKNOWN, Answer
+from satorder.model.answer import Answer
 from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
 from satorder.sat.engine import SatSession, resolve_solver
 
 

@@ -48,8 +48,9 @@ import time
 from collections.abc import Collection, Iterable
 
 from satorder.errors import InputError
-from satorder.model.answer import FEASIBLE, INFEASIBLE, UNKNOWN, Answer
+from satorder.model.answer import Answer
 from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
 from satorder.sat.encoding import Encoding, Key
 
 DEFAULT_SOLVER = "cadical195"

@@ -31,8 +31,9 @@ from __future__ import annotations
 import threading
 import time
 
-from satorder.model.answer import FEASIBLE, INFEASIBLE, UNKNOWN, Answer
+from satorder.model.answer import Answer
 from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
 from satorder.sat.encoding import Encoding
 
 MAXSAT_ORACLE = "glucose4"  # interruptible through python-sat, so time limits hold

@@ -8,6 +8,8 @@ import pickle
 
 import pytest
 
+from satorder import Problem
+from satorder.model.answer import Answer
 from satorder.model.requirement import (
     ARC_KINDS,
     KINDS,
@@ -109,3 +111,10 @@ def test_status_reads_as_its_string():
     assert json.dumps({"status": Status.INFEASIBLE}) == '{"status": "infeasible"}'
     with pytest.raises(ValueError):
         Status("timeout")
+
+
+def test_answer_status_is_typed_even_when_given_a_string():
+    p = Problem.from_lists(comparable=[("kiln", "loom")])
+    assert Answer(p, "unknown", "sat").status is Status.UNKNOWN
+    with pytest.raises(ValueError):
+        Answer(p, "solved", "sat")
