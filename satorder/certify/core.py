@@ -5,11 +5,10 @@ engine's compact encoding nor its default solver."""
 from __future__ import annotations
 
 from satorder.errors import CertificateError
+from satorder.model.requirement import KINDS, Kind, Requirement, items_of
 
-CORE_KINDS = ("comparable", "incomparable", "fixed", "forbidden")
 
-
-def _core_is_feasible(core: list[dict]) -> bool:
+def _core_is_feasible(core: list[Requirement]) -> bool:
     """Decide a small requirement set on its own (all unnamed pairs open) by the textbook
     encoding over every ordered pair and every triple of the items it mentions, solved with
     MiniSat — deliberately not the engine's compact encoding nor its default solver."""
@@ -17,21 +16,21 @@ def _core_is_feasible(core: list[dict]) -> bool:
 
     from pysat.solvers import Solver
 
-    items = sorted({i for r in core for i in r["pair"]})
+    items = items_of(core)
     var = {}
     for a, b in permutations(items, 2):
         var[a, b] = len(var) + 1
     clauses = [[-var[a, b], -var[b, a]] for a, b in permutations(items, 2) if a < b]
     clauses += [[-var[a, b], -var[b, c], var[a, c]] for a, b, c in permutations(items, 3)]
     for r in core:
-        kind, (a, b) = r["kind"], r["pair"]
-        if kind not in CORE_KINDS or a == b:
+        kind, (a, b) = r
+        if kind not in KINDS or a == b:
             raise CertificateError(f"core entry {r!r} is not a requirement")
-        if kind == "comparable":
+        if kind == Kind.COMPARABLE:
             clauses.append([var[a, b], var[b, a]])
-        elif kind == "incomparable":
+        elif kind == Kind.INCOMPARABLE:
             clauses += [[-var[a, b]], [-var[b, a]]]
-        elif kind == "fixed":
+        elif kind == Kind.FIXED:
             clauses.append([var[a, b]])
         else:
             clauses.append([-var[a, b]])
@@ -39,20 +38,19 @@ def _core_is_feasible(core: list[dict]) -> bool:
         return s.solve()
 
 
-def check_core_infeasible(problem, core: list[dict], minimal: bool = False) -> None:
-    """Verify that a core (requirements ``{"kind", "pair"}`` over item ids) belongs to the
-    problem and admits no order on its own; with ``minimal``, also that dropping any one member
-    makes it feasible (deletion-based MUS check)."""
+def check_core_infeasible(problem, core: list[Requirement], minimal: bool = False) -> None:
+    """Verify that a core (requirements over item ids) belongs to the problem and admits no
+    order on its own; with ``minimal``, also that dropping any one member makes it feasible
+    (deletion-based MUS check)."""
     fixed, forbidden = set(problem.fixed), set(problem.forbidden)
-    for r in core:
-        kind, (a, b) = r["kind"], r["pair"]
-        if kind == "comparable":
+    for kind, (a, b) in core:
+        if kind == Kind.COMPARABLE:
             present = b in problem.adj[a]
-        elif kind == "incomparable":
+        elif kind == Kind.INCOMPARABLE:
             present = problem.must_be_unordered(a, b)
-        elif kind == "fixed":
+        elif kind == Kind.FIXED:
             present = (a, b) in fixed
-        elif kind == "forbidden":
+        elif kind == Kind.FORBIDDEN:
             present = (a, b) in forbidden
         else:
             present = False

@@ -9,52 +9,52 @@ that every member is a requirement of the problem.  It shares no code with the e
 derivation (:mod:`satorder.certify.derivation`) or
 :func:`satorder.certify.core.check_core_infeasible`.
 
->>> core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 0)}]
+>>> from satorder.model.requirement import Requirement as R
+>>> core = [R("fixed", (0, 1)), R("fixed", (1, 0))]
 >>> check_minimality_witnesses(None, core, {0: [(1, 0)], 1: [(0, 1)]})
 """
 
 from __future__ import annotations
 
 from satorder.errors import CertificateError
+from satorder.model.requirement import Kind, Requirement
 
 
-def _member_of(problem, r) -> bool:
-    a, b = r["pair"]
-    kind = r["kind"]
+def _member_of(problem, r: Requirement) -> bool:
+    kind, (a, b) = r
     if not (0 <= a < problem.n and 0 <= b < problem.n) or a == b:
         return False
-    if kind == "comparable":
+    if kind == Kind.COMPARABLE:
         return b in problem.adj[a]
-    if kind == "incomparable":
+    if kind == Kind.INCOMPARABLE:
         return b not in problem.adj[a] if problem.incomparable is None \
             else b in problem.incomparable[a]
-    if kind == "fixed":
+    if kind == Kind.FIXED:
         return (a, b) in set(problem.fixed)
-    if kind == "forbidden":
+    if kind == Kind.FORBIDDEN:
         return (a, b) in set(problem.forbidden)
     return False
 
 
-def _meets(arcs: set, r) -> bool:
-    a, b = r["pair"]
-    kind = r["kind"]
-    if kind == "comparable":
+def _meets(arcs: set, r: Requirement) -> bool:
+    kind, (a, b) = r
+    if kind == Kind.COMPARABLE:
         return (a, b) in arcs or (b, a) in arcs
-    if kind == "incomparable":
+    if kind == Kind.INCOMPARABLE:
         return (a, b) not in arcs and (b, a) not in arcs
-    if kind == "fixed":
+    if kind == Kind.FIXED:
         return (a, b) in arcs
     return (a, b) not in arcs
 
 
-def check_minimality_witnesses(problem, core: list[dict], witnesses: dict) -> None:
+def check_minimality_witnesses(problem, core: list[Requirement], witnesses: dict) -> None:
     """Raise :class:`CertificateError` unless every member of ``core`` is a requirement of
     ``problem`` (skipped when ``problem`` is None) and ``witnesses[k]`` (a collection of arcs
     ``(a, b)`` meaning ``a < b``) is a strict partial order meeting every member except ``k``."""
     if problem is not None:
         for r in core:
             if not _member_of(problem, r):
-                raise CertificateError(f"core entry {r['kind']} {r['pair']} is not a requirement "
+                raise CertificateError(f"core entry {r.kind} {r.pair} is not a requirement "
                                        "of the problem")
     for k in range(len(core)):
         if k not in witnesses:

@@ -9,12 +9,12 @@ from satorder import certify
 from satorder.certify.minimality import check_minimality_witnesses
 from satorder.errors import CertificateError
 from satorder.explanation import derivation as derivation
-from satorder.explanation.requirements import _items_of
 from satorder.graph.forcing import transitive_orientation
 from satorder.graph.obstruction import (
     induced_adjacency,
 )
 from satorder.model.problem import Problem
+from satorder.model.requirement import PAIR_KINDS, Kind, Requirement, items_of
 from satorder.sat.mus import (
     core_oracle,
 )
@@ -58,19 +58,19 @@ def check_obstruction(problem: Problem, items: list[int]) -> None:
         certify.check_order(q, r.successor_sets())
 
 
-def forcing_witness(core: list[dict], k: int):
+def forcing_witness(core: list[Requirement], k: int):
     """An order meeting every member of ``core`` but member ``k``, from a transitive
     orientation (Golumbic 1980, ch. 5): order exactly the pairs that must be ordered (plus the
     pair of ``k`` when it is an unordered one) and nothing else.  Only for cores made of
     comparable and unordered pairs; ``None`` when that graph has no transitive orientation."""
-    if any(r["kind"] not in ("comparable", "incomparable") for r in core):
+    if any(r.kind not in PAIR_KINDS for r in core):
         return None
-    items = _items_of(core)
+    items = items_of(core)
     pos = {v: i for i, v in enumerate(items)}
     adj: list[set[int]] = [set() for _ in items]
-    for j, r in enumerate(core):
-        if (r["kind"] == "comparable") != (j == k):
-            a, b = pos[r["pair"][0]], pos[r["pair"][1]]
+    for j, (kind, (a, b)) in enumerate(core):
+        if (kind == Kind.COMPARABLE) != (j == k):
+            a, b = pos[a], pos[b]
             adj[a].add(b)
             adj[b].add(a)
     res = transitive_orientation(adj)
@@ -79,7 +79,7 @@ def forcing_witness(core: list[dict], k: int):
     return [(items[a], items[b]) for a, b in res.arcs()]  # transitively closed already
 
 
-def minimality_witnesses(core: list[dict]) -> dict[int, list]:
+def minimality_witnesses(core: list[Requirement]) -> dict[int, list]:
     """One witness order per member of ``core`` (each meets all other members): from a
     transitive orientation where one exists, otherwise from a SAT call.  Raises
     :class:`CertificateError` when some member can be dropped (the core is not minimal)."""
@@ -97,7 +97,8 @@ def minimality_witnesses(core: list[dict]) -> dict[int, list]:
     return witnesses
 
 
-def check_core(problem: Problem, core: list[dict], replayed: bool, witnesses=None) -> None:
+def check_core(problem: Problem, core: list[Requirement], replayed: bool,
+               witnesses=None) -> None:
     """Independent checks of a core: one witness order per member shows minimality
     (:func:`satorder.certify.minimality.check_minimality_witnesses`); infeasibility is shown by the
     replayed derivation (``replayed``) and, for cores on few items, also re-solved by
@@ -105,5 +106,5 @@ def check_core(problem: Problem, core: list[dict], replayed: bool, witnesses=Non
     if witnesses is None:
         witnesses = minimality_witnesses(core)
     check_minimality_witnesses(problem, core, witnesses)
-    if not replayed or len(_items_of(core)) <= MINIMALITY_CHECK_ITEMS:
+    if not replayed or len(items_of(core)) <= MINIMALITY_CHECK_ITEMS:
         certify.check_core_infeasible(problem, core)

@@ -29,8 +29,8 @@ every comparable pair is oriented and no rule fires is closed under transitivity
 requirement, i.e. it is an order.  Only the steps the final contradiction depends on are kept.
 :mod:`satorder.certify.derivation` checks derivations independently of this module.
 
->>> core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 2)},
-...         {"kind": "incomparable", "pair": (0, 2)}]
+>>> from satorder.model.requirement import Requirement as R
+>>> core = [R("fixed", (0, 1)), R("fixed", (1, 2)), R("incomparable", (0, 2))]
 >>> [(s.rule, s.arc) for s in build_derivation(core)]
 [('fixed', (0, 1)), ('fixed', (1, 2)), ('transitivity', (0, 2)), ('unordered', None)]
 """
@@ -40,6 +40,8 @@ from __future__ import annotations
 import time
 from collections import defaultdict, deque
 from dataclasses import dataclass
+
+from satorder.model.requirement import Kind, Requirement
 
 Arc = tuple[int, int]
 
@@ -72,7 +74,7 @@ class DerivationBudgetExceeded(RuntimeError):
 
 
 class _Search:
-    def __init__(self, core: list[dict], budget: int, time_limit: float):
+    def __init__(self, core: list[Requirement], budget: int, time_limit: float):
         self.budget = budget
         self.deadline = time.monotonic() + time_limit
         self.fixed: dict[Arc, int] = {}
@@ -80,22 +82,17 @@ class _Search:
         self.incomparable: dict[frozenset, int] = {}
         self.comparable: dict[frozenset, int] = {}
         self.comp_nb: dict[int, list[int]] = defaultdict(list)
-        for k, r in enumerate(core):
-            a, b = r["pair"]
-            kind = r["kind"]
-            if kind == "fixed":
+        for k, (kind, (a, b)) in enumerate(core):
+            if kind == Kind.FIXED:
                 self.fixed.setdefault((a, b), k)
-            elif kind == "forbidden":
+            elif kind == Kind.FORBIDDEN:
                 self.forbidden.setdefault((a, b), k)
-            elif kind == "incomparable":
+            elif kind == Kind.INCOMPARABLE:
                 self.incomparable.setdefault(frozenset((a, b)), k)
-            elif kind == "comparable":
-                if frozenset((a, b)) not in self.comparable:
-                    self.comparable[frozenset((a, b))] = k
-                    self.comp_nb[a].append(b)
-                    self.comp_nb[b].append(a)
-            else:
-                raise ValueError(f"unknown requirement kind {kind!r}")
+            elif frozenset((a, b)) not in self.comparable:  # Kind.COMPARABLE
+                self.comparable[frozenset((a, b))] = k
+                self.comp_nb[a].append(b)
+                self.comp_nb[b].append(a)
         self.pairs = [tuple(sorted(p)) for p in self.comparable]
 
     # ------------------------------------------------------------------ propagation
@@ -268,10 +265,10 @@ def _linearise(root: _Node) -> list[Step]:
     return steps
 
 
-def build_derivation(core: list[dict], budget: int = 20000,
+def build_derivation(core: list[Requirement], budget: int = 20000,
                      time_limit: float = 20.0) -> list[Step] | None:
-    """A derivation of a contradiction from the requirements in ``core`` (``{"kind", "pair"}``
-    with item ids), or ``None`` when the core admits an order.
+    """A derivation of a contradiction from the requirements in ``core`` (over item ids), or
+    ``None`` when the core admits an order.
 
     Raises :class:`DerivationBudgetExceeded` when the search needs more than ``budget``
     propagation rounds or ``time_limit`` seconds (large cores with many independent case
@@ -284,18 +281,18 @@ def build_derivation(core: list[dict], budget: int = 20000,
 
 
 # ---------------------------------------------------------------------- words
-def describe(step: Step, core: list[dict], names: list[str]) -> tuple[str, str]:
+def describe(step: Step, core: list[Requirement], names: list[str]) -> tuple[str, str]:
     """The claim of a step and its justification, in plain words (item names)."""
 
     def req(k: int) -> str:
-        r = core[k]
-        a, b = (names[v] for v in r["pair"])
+        kind, (a, b) = core[k]
+        a, b = names[a], names[b]
         return {
-            "comparable": f"{a} and {b} must be ordered",
-            "incomparable": f"{a} and {b} must stay unordered",
-            "fixed": f"{a} must come before {b}",
-            "forbidden": f"{a} before {b} is ruled out",
-        }[r["kind"]]
+            Kind.COMPARABLE: f"{a} and {b} must be ordered",
+            Kind.INCOMPARABLE: f"{a} and {b} must stay unordered",
+            Kind.FIXED: f"{a} must come before {b}",
+            Kind.FORBIDDEN: f"{a} before {b} is ruled out",
+        }[kind]
 
     claim = "contradiction" if step.arc is None else f"{names[step.arc[0]]} < {names[step.arc[1]]}"
     s = step.steps
@@ -310,7 +307,7 @@ def describe(step: Step, core: list[dict], names: list[str]) -> tuple[str, str]:
     elif step.rule == "forcing":
         a, b = step.arc
         k_comp, k_inc = step.requirements
-        into = b not in core[k_inc]["pair"]
+        into = b not in core[k_inc].pair
         pivot = names[b] if into else names[a]
         way = "into" if into else "out of"
         why = (f"forcing from step {s[0]}: {req(k_comp)} and {req(k_inc)}, so both arcs point "
@@ -320,7 +317,7 @@ def describe(step: Step, core: list[dict], names: list[str]) -> tuple[str, str]:
     elif step.rule == "antisymmetry":
         why = f"antisymmetry: steps {s[0]} and {s[1]} order the same pair both ways"
     elif step.rule == "unordered":
-        a, b = (names[v] for v in core[step.requirements[0]]["pair"])
+        a, b = (names[v] for v in core[step.requirements[0]].pair)
         why = f"step {s[0]} orders {a} and {b}, which must stay unordered"
     elif step.rule == "forbidden":
         why = f"step {s[0]} is ruled out: {req(step.requirements[0])}"
@@ -329,7 +326,7 @@ def describe(step: Step, core: list[dict], names: list[str]) -> tuple[str, str]:
     return claim, why
 
 
-def to_json(steps: list[Step], core: list[dict], names: list[str]) -> list[dict]:
+def to_json(steps: list[Step], core: list[Requirement], names: list[str]) -> list[dict]:
     """The derivation as JSON-ready dicts (item names; ``requirements`` index the core list)."""
     out = []
     for st in steps:

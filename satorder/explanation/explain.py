@@ -47,7 +47,7 @@ from satorder.explanation.repairs import (
     _local_repairs,
     _verify_small_repair,
 )
-from satorder.explanation.requirements import _items_of, requirements
+from satorder.explanation.requirements import requirements
 from satorder.graph.forcing import ForcingResult, transitive_orientation
 from satorder.graph.obstruction import (
     chain_items,
@@ -56,7 +56,15 @@ from satorder.graph.obstruction import (
     minimise_obstruction,
 )
 from satorder.model.problem import Problem
-from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN, Status
+from satorder.model.requirement import (
+    FEASIBLE,
+    INFEASIBLE,
+    UNKNOWN,
+    Kind,
+    Requirement,
+    Status,
+    items_of,
+)
 from satorder.sat.mus import (
     RequirementOracle,
     core_oracle,
@@ -80,7 +88,7 @@ class Explanation:
 
     problem: Problem
     status: Status
-    core: list[dict] | None = None
+    core: list[Requirement] | None = None
     obstruction: list[int] | None = None
     steps: list[derivation.Step] | None = None
     smallest: dict[str, Any] | None = None
@@ -94,7 +102,7 @@ class Explanation:
 
     def involved_items(self) -> list[int]:
         """Items named by the core or the obstruction."""
-        return sorted({v for r in self.core or () for v in r["pair"]} | set(self.obstruction or ()))
+        return sorted(set(items_of(self.core or ())) | set(self.obstruction or ()))
 
     def obstruction_graph(self):
         """The subgraph the obstruction induces, as a networkx graph on item names."""
@@ -104,9 +112,7 @@ class Explanation:
         return self.problem.to_networkx().subgraph(names[v] for v in self.obstruction).copy()
 
     def core_json(self) -> list[dict]:
-        names = self.problem.items
-        return [{"kind": r["kind"], "pair": [names[r["pair"][0]], names[r["pair"][1]]]}
-                for r in self.core or []]
+        return [r.to_json(self.problem.items) for r in self.core or []]
 
     def derivation_json(self) -> list[dict] | None:
         if self.steps is None:
@@ -128,9 +134,7 @@ class Explanation:
         if self.repairs is not None:
             doc["repairs"] = [
                 {
-                    "drop": [{"kind": r["kind"], "pair": [names[r["pair"][0]],
-                                                          names[r["pair"][1]]]}
-                             for r in rep.drop],
+                    "drop": [r.to_json(names) for r in rep.drop],
                     "order": None if rep.succ is None else
                     [[names[a], names[b]] for a, s in enumerate(rep.succ) for b in sorted(s)],
                     "verified": rep.verified,
@@ -147,29 +151,26 @@ class Explanation:
         return doc
 
 
-def _chain_core(problem: Problem, items: list[int]) -> list[dict]:
+def _chain_core(problem: Problem, items: list[int]) -> list[Requirement]:
     """Comparable pairs and unordered witness pairs of a forcing chain inside ``items``."""
     order, sub = induced_adjacency(problem.adj, items)
     res = transitive_orientation(sub)
     assert not res.orientable
     fixed = {frozenset(arc): arc for arc in problem.fixed}  # a fixed arc stands for its pair
-    core: dict[tuple, dict] = {}
+    core: dict[Requirement, None] = {}  # in order of first appearance
     for s in res.chain:
-        a, b = sorted((order[s.arc[0]], order[s.arc[1]]))
+        a, b = order[s.arc[0]], order[s.arc[1]]
         arc = fixed.get(frozenset((a, b)))
-        if arc is not None:
-            core.setdefault(("fixed", *arc), {"kind": "fixed", "pair": arc})
-        else:
-            core.setdefault(("comparable", a, b), {"kind": "comparable", "pair": (a, b)})
+        core[Requirement(Kind.COMPARABLE, (a, b)) if arc is None
+             else Requirement(Kind.FIXED, arc)] = None
         if s.because is not None:
-            x, y = sorted((order[s.because[0]], order[s.because[1]]))
-            core.setdefault(("incomparable", x, y), {"kind": "incomparable", "pair": (x, y)})
-    return list(core.values())
+            core[Requirement(Kind.INCOMPARABLE, (order[s.because[0]], order[s.because[1]]))] = None
+    return list(core)
 
 
 def _engine_core(problem: Problem, time_limit: float):
     """The project's solver on a problem too large for the all-triples oracle: ``"feasible"``
-    (its order verified), an infeasible core over requirement dicts, or ``None``."""
+    (its order verified), an infeasible core and whether it is minimal, or ``None``."""
     from satorder.pipeline.solve import solve
 
     try:
@@ -180,11 +181,10 @@ def _engine_core(problem: Problem, time_limit: float):
         return FEASIBLE
     if ans.status != INFEASIBLE or not ans.core:
         return None
-    core = [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in ans.core]
-    return core, bool(ans.stats.get("core", {}).get("minimal"))
+    return list(ans.core), bool(ans.stats.get("core", {}).get("minimal"))
 
 
-def minimal_core_of(answer) -> list[dict] | None:
+def minimal_core_of(answer) -> list[Requirement] | None:
     """A verified minimal core for an infeasible :class:`~satorder.model.answer.Answer`, computed
     from
     its forcing chain (shrunk to a minimal obstruction first) or from the engine's core; ``None``
@@ -193,10 +193,10 @@ def minimal_core_of(answer) -> list[dict] | None:
     if answer.chain is not None:
         start = _chain_core(p, minimise_obstruction(p.adj, chain_items(answer.chain)))
     elif answer.core:
-        start = [{"kind": r["kind"], "pair": tuple(r["pair"])} for r in answer.core]
+        start = list(answer.core)
     else:
         return None
-    if len(_items_of(start)) > SUMMARY_ITEMS:
+    if len(items_of(start)) > SUMMARY_ITEMS:
         return None
     with core_oracle(start) as oracle:
         core = [start[k] for k in minimal_core(oracle, range(len(start)))]
@@ -205,9 +205,8 @@ def minimal_core_of(answer) -> list[dict] | None:
     except derivation.DerivationBudgetExceeded:
         steps = None
     if steps is not None:
-        replay.check_derivation(
-            [{"kind": r["kind"], "pair": [p.items[v] for v in r["pair"]]} for r in core],
-            derivation.to_json(steps, core, p.items))
+        replay.check_derivation([r.to_json(p.items) for r in core],
+                                derivation.to_json(steps, core, p.items))
     check_core(p, core, replayed=steps is not None)
     return core
 
@@ -237,7 +236,7 @@ def explain(
     expl = Explanation(problem, UNKNOWN, stats=stats)
     small = problem.n <= WHOLE_PROBLEM_ITEMS
     whole_oracle = None
-    core: list[dict] | None = None
+    core: list[Requirement] | None = None
     core_witnesses = None
 
     if problem.incomparable is None:
@@ -296,7 +295,7 @@ def explain(
         core = [reqs[k] for k in minimal_core(whole_oracle, found)]
 
     expl.status, expl.core = INFEASIBLE, core
-    items = _items_of(core)
+    items = items_of(core)
     say("derivation")
     t = time.perf_counter()
     try:
@@ -317,7 +316,7 @@ def explain(
             scope = "whole problem"
         else:
             universe_reqs = requirements(problem, set(items) | set(expl.obstruction or ()))
-            scope = f"requirements among the {len(_items_of(universe_reqs))} items of the core"
+            scope = f"requirements among the {len(items_of(universe_reqs))} items of the core"
         if whole_oracle is None or not small:
             if whole_oracle is not None:
                 whole_oracle.close()
@@ -335,7 +334,7 @@ def explain(
                                                  time_limit=time_limit / 2)
                 universe_reqs = local
                 info = {"proved": proved, "scope": "requirements among the "
-                        f"{len(_items_of(local))} items of the core",
+                        f"{len(items_of(local))} items of the core",
                         "note": f"the whole-problem search gave up after {time_limit:g} s"}
             if best is not None:
                 found = [universe_reqs[k] for k in best]

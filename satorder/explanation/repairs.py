@@ -11,13 +11,13 @@ from itertools import product
 
 from satorder import certify
 from satorder.explanation import derivation as derivation
-from satorder.explanation.requirements import _items_of, requirements
+from satorder.explanation.requirements import requirements
 from satorder.graph.forcing import transitive_orientation
 from satorder.graph.obstruction import (
     find_obstruction,
 )
 from satorder.model.problem import Problem
-from satorder.model.requirement import FEASIBLE, INFEASIBLE
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, PAIR_KINDS, Kind, Requirement, items_of
 from satorder.sat.mus import (
     RequirementOracle,
     correction_sets,
@@ -30,14 +30,14 @@ REPAIR_SAT_ITEMS = 3000  # side-constraint repairs re-solved (unordered pairs li
 class Repair:
     """A minimal correction set: requirements to drop, and an order the repaired problem admits."""
 
-    drop: list[dict]
+    drop: list[Requirement]
     succ: list[set[int]] | None
     verified: bool
     note: str = ""
 
 
 # ---------------------------------------------------------------------- repairs
-def repaired_problem(problem: Problem, drop: list[dict]) -> Problem:
+def repaired_problem(problem: Problem, drop: list[Requirement]) -> Problem:
     """``problem`` with the requirements in ``drop`` removed (their pairs become open).  The
     unordered pairs are listed explicitly, so this is for problems of modest size."""
     adj = [set(s) for s in problem.adj]
@@ -46,15 +46,14 @@ def repaired_problem(problem: Problem, drop: list[dict]) -> Problem:
     else:
         inc = [set(s) for s in problem.incomparable]
     fixed, forbidden = list(problem.fixed), list(problem.forbidden)
-    for r in drop:
-        a, b = r["pair"]
-        if r["kind"] == "comparable":
+    for kind, (a, b) in drop:
+        if kind == Kind.COMPARABLE:
             adj[a].discard(b)
             adj[b].discard(a)
-        elif r["kind"] == "incomparable":
+        elif kind == Kind.INCOMPARABLE:
             inc[a].discard(b)
             inc[b].discard(a)
-        elif r["kind"] == "fixed":
+        elif kind == Kind.FIXED:
             fixed.remove((a, b))
             if not any({a, b} == {x, y} for x, y in fixed):
                 adj[a].discard(b)
@@ -82,7 +81,7 @@ def _verify_small_repair(problem: Problem, oracle, universe, mcs) -> Repair:
     return Repair(drop, succ, True)
 
 
-def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int):
+def _verify_plain_repair(problem: Problem, drop: list[Requirement], max_tries: int):
     """For problems whose other pairs must all stay unordered: the dropped pairs become open, so
     the repaired problem is feasible iff some choice of ordered/unordered for them leaves a
     comparability graph.  Choices are tried (flipping every dropped pair first); an orientation
@@ -91,9 +90,8 @@ def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int):
 
     Returns ``(repair, blocker)``: ``blocker`` is a minimal obstruction of the first (flipped)
     choice when no choice worked, i.e. where the remaining conflict lies."""
-    pairs = [tuple(r["pair"]) for r in drop if r["kind"] in ("comparable", "incomparable")]
-    was_edge = [r["kind"] == "comparable" for r in drop
-                if r["kind"] in ("comparable", "incomparable")]
+    pairs = [r.pair for r in drop if r.kind in PAIR_KINDS]
+    was_edge = [r.kind == Kind.COMPARABLE for r in drop if r.kind in PAIR_KINDS]
     if len(pairs) != len(drop):
         return Repair(drop, None, False, "fixed or forbidden arcs: not checked here"), None
     blocker = None
@@ -116,11 +114,7 @@ def _verify_plain_repair(problem: Problem, drop: list[dict], max_tries: int):
     return Repair(drop, None, False, "other conflicts remain after this change"), blocker
 
 
-def _key(r: dict) -> tuple:
-    return (r["kind"], tuple(r["pair"]))
-
-
-def _verify_general_repair(problem: Problem, drop: list[dict], deadline: float):
+def _verify_general_repair(problem: Problem, drop: list[Requirement], deadline: float):
     """Solve the repaired problem with the project's solver (its order is checked by
     :func:`certify.check_order` inside :func:`satorder.pipeline.solve.solve`); on failure the items
     of
@@ -135,7 +129,7 @@ def _verify_general_repair(problem: Problem, drop: list[dict], deadline: float):
         return Repair(drop, ans.succ, True), None
     if ans.status == INFEASIBLE and ans.core:
         return (Repair(drop, None, False, "other conflicts remain after this change"),
-                _items_of(ans.core))
+                items_of(ans.core))
     return Repair(drop, None, False, "no verdict within the time limit"), None
 
 
@@ -165,7 +159,7 @@ def _local_repairs(problem: Problem, items: set[int], limit: int, deadline: floa
                                     time_limit=max(0.1, deadline - time.monotonic()))
         for mcs in found:
             drop = [reqs[k] for k in mcs]
-            key = frozenset(map(_key, drop))
+            key = frozenset(drop)
             if key in offered or key in rejected:
                 continue
             if time.monotonic() >= deadline or len(offered) >= limit:

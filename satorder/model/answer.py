@@ -7,7 +7,7 @@ from typing import Any
 
 from satorder.model import order as order_ops
 from satorder.model.problem import Problem
-from satorder.model.requirement import FEASIBLE, Status
+from satorder.model.requirement import FEASIBLE, Requirement, Status
 
 
 @dataclass
@@ -17,7 +17,8 @@ class Answer:
     ``status`` is a :class:`~satorder.model.requirement.Status` (a string given here is turned
     into one).  ``succ`` holds the order as successor sets (transitively closed) when ``status``
     is ``feasible``; ``chain`` holds a forcing-chain conflict certificate and ``core`` a list of
-    requirements ``{"kind", "pair"}`` (item ids) that cannot hold together, when infeasible.
+    requirements (:class:`~satorder.model.requirement.Requirement`, item ids) that cannot hold
+    together, when infeasible.
     ``verified`` is set only by the independent checks in :mod:`satorder.certify`.
     """
 
@@ -26,7 +27,7 @@ class Answer:
     engine: str
     succ: list[set[int]] | None = None
     chain: list | None = None
-    core: list[dict] | None = None
+    core: list[Requirement] | None = None
     cost: int | None = None
     optimal: bool | None = None
     lower_bound: int | None = None
@@ -107,10 +108,7 @@ class Answer:
                 for s in self.chain
             ]
         if self.core is not None:
-            doc["core"] = [
-                {"kind": r["kind"], "pair": [names[r["pair"][0]], names[r["pair"][1]]]}
-                for r in self.core
-            ]
+            doc["core"] = [r.to_json(names) for r in self.core]
         doc["items"] = p.n
         doc["comparable_pairs"] = p.num_comparable
         doc["verified"] = self.verified

@@ -103,14 +103,15 @@ class Requirement(_Fields):
     __slots__ = ()
 
     def __new__(cls, kind: Kind | str, pair: Iterable[int]) -> Requirement:
-        kind = Kind(kind)
+        if kind.__class__ is not Kind:
+            kind = Kind(kind)
         a, b = pair
         a, b = int(a), int(b)
         if a == b:
             raise ValueError(f"a {kind} requirement needs two different items, got {a} twice")
-        if a > b and kind in PAIR_KINDS:
+        if a > b and (kind is Kind.COMPARABLE or kind is Kind.INCOMPARABLE):
             a, b = b, a
-        return super().__new__(cls, kind, (a, b))
+        return tuple.__new__(cls, (kind, (a, b)))
 
     def to_json(self, names: Sequence[str]) -> dict[str, Any]:
         """The JSON form ``{"kind": ..., "pair": [name_a, name_b]}`` (``names[id]`` is the

@@ -14,7 +14,7 @@ from satorder.errors import CertificateError, InputError
 from satorder.graph.forcing import transitive_orientation
 from satorder.model.answer import Answer
 from satorder.model.problem import Problem
-from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN, Kind, Requirement
 
 ENGINES = ("auto", "forcing", "sat", "both")
 
@@ -36,26 +36,12 @@ def solve_forcing(problem: Problem) -> Answer:
     if res.orientable:
         ans = Answer(problem, FEASIBLE, "forcing", succ=res.successor_sets(), stats=stats)
     else:
-        core = [{"kind": "comparable", "pair": tuple(sorted(s.arc))} for s in res.chain[:-1]]
-        core += [
-            {"kind": "incomparable", "pair": tuple(sorted(s.because))}
-            for s in res.chain[1:]
-        ]
-        ans = Answer(problem, INFEASIBLE, "forcing", chain=res.chain, core=_dedup(core),
-                     stats=stats)
+        core = [Requirement(Kind.COMPARABLE, s.arc) for s in res.chain[:-1]]
+        core += [Requirement(Kind.INCOMPARABLE, s.because) for s in res.chain[1:]]
+        ans = Answer(problem, INFEASIBLE, "forcing", chain=res.chain,
+                     core=list(dict.fromkeys(core)), stats=stats)
     stats["seconds"] = round(time.perf_counter() - t0, 6)
     return ans
-
-
-def _dedup(core: list[dict]) -> list[dict]:
-    seen = set()
-    out = []
-    for r in core:
-        key = (r["kind"], r["pair"])
-        if key not in seen:
-            seen.add(key)
-            out.append(r)
-    return out
 
 
 def verify(answer: Answer) -> Answer:

@@ -77,9 +77,8 @@ def print_answer(ans: Answer, console: Console, hint_file: str | None = None) ->
             _print_chain(ans.chain, names, console)
         elif ans.core is not None:
             console.print("No order exists. These requirements cannot all hold:")
-            for r in ans.core[:MAX_ROWS]:
-                a, b = r["pair"]
-                console.print(f"  - {r['kind']}: {names[a]}, {names[b]}")
+            for kind, (a, b) in ans.core[:MAX_ROWS]:
+                console.print(f"  - {kind}: {names[a]}, {names[b]}")
         if hint_file:
             console.print(f"Run [bold]satorder explain {hint_file}[/] for a minimal core and a "
                           "step-by-step derivation.")

@@ -21,7 +21,7 @@ from __future__ import annotations
 import math
 from html import escape
 
-from satorder.model.requirement import INFEASIBLE
+from satorder.model.requirement import INFEASIBLE, Kind, Requirement
 from satorder.render.order_svg import svg_start
 
 MAX_ITEMS = 80
@@ -35,15 +35,13 @@ COLOURS = {
 }
 
 
-def _walk_order(items: list[int], core: list[dict]) -> list[int]:
+def _walk_order(items: list[int], core: list[Requirement]) -> list[int]:
     """Items in the order of depth-first walks along core comparable pairs (and fixed arcs)."""
     nb: dict[int, list[int]] = {v: [] for v in items}
-    for r in core:
-        if r["kind"] in ("comparable", "fixed"):
-            a, b = r["pair"]
-            if a in nb and b in nb:
-                nb[a].append(b)
-                nb[b].append(a)
+    for kind, (a, b) in core:
+        if kind in (Kind.COMPARABLE, Kind.FIXED) and a in nb and b in nb:
+            nb[a].append(b)
+            nb[b].append(a)
     seen: set[int] = set()
     out: list[int] = []
     for start in sorted(items, key=lambda v: (not nb[v], v)):
@@ -73,7 +71,7 @@ def explanation_svg(expl, title: str | None = None) -> str:
     margin_top = 70.0
     width = max(760.0, 2 * (150.0 + radius))
     cx, cy = width / 2, margin_top + radius
-    kinds = {r["kind"] for r in core}
+    kinds = {r.kind for r in core}
     legend_y = cy + radius + 60
     height = legend_y + 26 * (len(kinds) + 2) + 20
     pos = {}
@@ -109,20 +107,18 @@ def explanation_svg(expl, title: str | None = None) -> str:
         out.append(f'<line x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" y2="{y2:.1f}" '
                    f'stroke="{colour}" stroke-width="{w}"{extra}/>')
 
-    core_pairs = {frozenset(r["pair"]) for r in core}
+    core_pairs = {frozenset(r.pair) for r in core}
     chosen = set(items)
     for a in items:
         for b in p.adj[a]:
             if a < b and b in chosen and frozenset((a, b)) not in core_pairs:
                 line(a, b, COLOURS["graph"], 1.5)
-    for r in core:
-        a, b = r["pair"]
-        kind = r["kind"]
-        if kind == "comparable":
+    for kind, (a, b) in core:
+        if kind == Kind.COMPARABLE:
             line(a, b, COLOURS[kind], 4)
-        elif kind == "incomparable":
+        elif kind == Kind.INCOMPARABLE:
             line(a, b, COLOURS[kind], 2.5, dash="7,5")
-        elif kind == "fixed":
+        elif kind == Kind.FIXED:
             line(a, b, COLOURS[kind], 3.5, marker="arrow-fixed", shorten=17)
         else:  # a bent arrow, so it stays visible beside a straight line on the same pair
             (x1, y1), (x2, y2) = pos[a], pos[b]

@@ -7,34 +7,35 @@ from rich.console import Console
 from rich.table import Table
 
 from satorder.explanation.derivation import describe
-from satorder.model.requirement import FEASIBLE, INFEASIBLE
+from satorder.model.requirement import ARC_KINDS, FEASIBLE, INFEASIBLE, Kind, Requirement, items_of
 
 MAX_STEPS = 120
 MAX_ORDER_PAIRS = 12
 
 KIND_WORDS = {
-    "comparable": "must be ordered",
-    "incomparable": "must stay unordered",
-    "fixed": "must come before",
-    "forbidden": "may not come before",
+    Kind.COMPARABLE: "must be ordered",
+    Kind.INCOMPARABLE: "must stay unordered",
+    Kind.FIXED: "must come before",
+    Kind.FORBIDDEN: "may not come before",
 }
 
 
-def requirement_text(r: dict, names: list[str]) -> str:
-    a, b = (names[v] for v in r["pair"])
-    if r["kind"] in ("fixed", "forbidden"):
-        return f"{a} {KIND_WORDS[r['kind']]} {b}"
-    return f"{a}, {b} {KIND_WORDS[r['kind']]}"
+def requirement_text(r: Requirement, names: list[str]) -> str:
+    kind, (a, b) = r
+    if kind in ARC_KINDS:
+        return f"{names[a]} {KIND_WORDS[kind]} {names[b]}"
+    return f"{names[a]}, {names[b]} {KIND_WORDS[kind]}"
 
 
-def print_core(core: list[dict], names: list[str], console: Console, limit: int = 40) -> None:
+def print_core(core: list[Requirement], names: list[str], console: Console,
+               limit: int = 40) -> None:
     """The core as a table: one requirement per row."""
     table = Table(show_header=True, header_style="bold")
     table.add_column("#", justify="right")
     table.add_column("kind")
     table.add_column("requirement")
     for k, r in enumerate(core[:limit]):
-        table.add_row(str(k), r["kind"], requirement_text(r, names))
+        table.add_row(str(k), str(r.kind), requirement_text(r, names))
     console.print(table)
     if len(core) > limit:
         console.print(f"… and {len(core) - limit} more (use --json).")
@@ -88,7 +89,7 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
     elif expl.repairs is not None:
         console.print(f"\n[bold]Repairs[/] ({len(expl.repairs)}; each is a minimal set of "
                       "requirements to drop, checked by finding an order after the change):")
-        focus = {v for r in core for v in r["pair"]}
+        focus = set(items_of(core))
         for k, rep in enumerate(expl.repairs, 1):
             drops = "; ".join(requirement_text(r, names) for r in rep.drop)
             console.print(f"  {k}. drop: {drops}")

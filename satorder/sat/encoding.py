@@ -35,11 +35,11 @@ Interface (stable; explain, count, MaxSAT and benchmark code build on it)
   since its last call (feed them to a solver); ``nv`` → highest variable in use;
   ``new_var()`` → a fresh auxiliary variable.
 * ``selector(kind, pair)`` → the selector literal of a requirement (created on demand);
-  ``selector_of[(kind, pair)]`` and its inverse ``requirement_of[literal]``.  Keys are
-  ``("comparable"|"incomparable", (a, b))`` with ``a < b`` and ``("fixed"|"forbidden", (a, b))``
-  for the arc a<b, exactly the ``{"kind", "pair"}`` of a core.  Every clause that stands for a
-  requirement contains ``-selector``; assuming the selector switches the requirement on, leaving
-  it unassumed drops it (the pair becomes open).
+  ``selector_of[requirement]`` and its inverse ``requirement_of[literal]``.  Keys are
+  :class:`~satorder.model.requirement.Requirement` values, exactly the members of a core (a
+  plain ``(kind, pair)`` tuple in the same form finds the same entry).  Every clause that
+  stands for a requirement contains ``-selector``; assuming the selector switches the
+  requirement on, leaving it unassumed drops it (the pair becomes open).
 * ``decode(model)`` → successor sets of the ordered pairs true in the model (a relation,
   transitively closed once ``violations`` finds nothing); ``violations(succ)`` → violated
   triples ``(a, b, c)``; ``refine(triples)`` → adds their clauses, returns how many.
@@ -69,12 +69,12 @@ from scipy.sparse.csgraph import breadth_first_order, connected_components
 
 from satorder.graph.forcing import implication_ties, tie_graph
 from satorder.model.problem import Problem
+from satorder.model.requirement import Kind, Requirement
 from satorder.sat.dimacs import to_dimacs
 from satorder.sat.violations import violations
 
 Arc = tuple[int, int]
-Key = tuple[str, Arc]
-KINDS = ("comparable", "incomparable", "fixed", "forbidden")
+Key = Requirement  # selectors and refutations are keyed by the requirement they stand for
 
 
 class Encoding:
@@ -90,8 +90,8 @@ class Encoding:
             raise ValueError("implication classes cannot be collapsed when selectors are on")
         self.nv = 0
         self.hard: list[list[int]] = []
-        # why each clause is there (index in ``hard`` → ("triple", (a, b, c)) | ("fixed", arc)
-        # | ("forbidden", arc) | ("axiom",)); clauses added by callers have no entry
+        # why each clause is there (index in ``hard`` → ("triple", (a, b, c)) | ("axiom",) | the
+        # fixed or forbidden Requirement it encodes); clauses added by callers have no entry
         self.origin: dict[int, tuple] = {}
         self._new_from = 0
         self._pair: dict[int, tuple[int, int]] = {}  # key a*n+b (a<b) → (lit a<b, lit b<a)
@@ -109,11 +109,11 @@ class Encoding:
             self._forbid.setdefault(min(a, b) * n + max(a, b), []).append((a, b))
         if selectors:
             for a, b in problem.comparable_pairs():
-                self.selector("comparable", (a, b))
+                self.selector(Kind.COMPARABLE, (a, b))
             for arc in problem.fixed:
-                self.selector("fixed", arc)
+                self.selector(Kind.FIXED, arc)
             for arc in problem.forbidden:
-                self.selector("forbidden", arc)
+                self.selector(Kind.FORBIDDEN, arc)
         if self.collapse:
             self._collapse_classes()
         else:
@@ -122,9 +122,9 @@ class Encoding:
         for a, b in problem.fixed:
             lit = self.lt(a, b)
             if self.selectors:
-                self.hard.append([-self.selector_of[("fixed", (a, b))], lit])
+                self.hard.append([-self.selector_of[Requirement(Kind.FIXED, (a, b))], lit])
             else:
-                self._add([lit], ("fixed", (a, b)))
+                self._add([lit], Requirement(Kind.FIXED, (a, b)))
         if not lazy:
             self.add_all_transitivity()
 
@@ -161,11 +161,9 @@ class Encoding:
                 return None
         return lits[1]
 
-    def selector(self, kind: str, pair: Arc) -> int:
+    def selector(self, kind: Kind | str, pair: Arc) -> int:
         """The selector literal of requirement ``(kind, pair)``, created on first use."""
-        if kind in ("comparable", "incomparable"):
-            pair = (min(pair), max(pair))
-        key = (kind, (int(pair[0]), int(pair[1])))
+        key = Requirement(kind, pair)
         lit = self.selector_of.get(key)
         if lit is None:
             lit = self.new_var()
@@ -191,9 +189,9 @@ class Encoding:
             self._add([-up, -down], ("axiom",))
             self.phase_hints += [up, -down] if comparable else [-up, -down]
             if comparable:
-                self.hard.append([-self.selector("comparable", (a, b)), up, down])
+                self.hard.append([-self.selector(Kind.COMPARABLE, (a, b)), up, down])
             elif unordered:
-                s = self.selector("incomparable", (a, b))
+                s = self.selector(Kind.INCOMPARABLE, (a, b))
                 self.hard.append([-s, -up])
                 self.hard.append([-s, -down])
         self._pair[key] = lits
@@ -204,9 +202,9 @@ class Encoding:
         for x, y in self._forbid.get(key, ()):
             lit = lits[0] if x == a else lits[1]
             if self.selectors:
-                self.hard.append([-self.selector_of[("forbidden", (x, y))], -lit])
+                self.hard.append([-self.selector_of[Requirement(Kind.FORBIDDEN, (x, y))], -lit])
             else:
-                self._add([-lit], ("forbidden", (x, y)))
+                self._add([-lit], Requirement(Kind.FORBIDDEN, (x, y)))
 
     # ------------------------------------------------------------------ implication classes
     def _collapse_classes(self) -> None:
@@ -259,25 +257,24 @@ class Encoding:
         used: list[Arc] = []
 
         def pair_req(a: int, b: int) -> None:
-            key = (min(a, b), max(a, b))
             if b in p.adj[a]:
-                out[("comparable", key)] = None
+                out[Requirement(Kind.COMPARABLE, (a, b))] = None
                 used.append((a, b))
             elif p.must_be_unordered(a, b):
-                out[("incomparable", key)] = None
+                out[Requirement(Kind.INCOMPARABLE, (a, b))] = None
 
         for k in clause_ids:
             origin = self.origin.get(k)
             if origin is None:
                 return None
-            if origin[0] == "triple":
+            if isinstance(origin, Requirement):  # a fixed or forbidden arc
+                out[origin] = None
+                pair_req(*origin.pair)
+            elif origin[0] == "triple":
                 a, b, c = origin[1]
                 pair_req(a, b)
                 pair_req(b, c)
                 pair_req(a, c)
-            elif origin[0] in ("fixed", "forbidden"):
-                out[(origin[0], origin[1])] = None
-                pair_req(*origin[1])
         if getattr(self, "_ties", None) is not None:
             graph, edges, eid = self._ties
             by_var: dict[int, list[int]] = {}
@@ -344,7 +341,7 @@ class Encoding:
                     hard.append([-x, -y] if x != y else [-x])
                     count += 1
                     continue
-                req = ("incomparable", (min(a, c), max(a, c)))
+                req = Requirement(Kind.INCOMPARABLE, (a, c))
                 if active is None or active(req):
                     hard.append([-self.selector(*req), -x, -y])
                     count += 1
@@ -482,9 +479,9 @@ def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Ke
                 return None
             (a, b), (c, d) = arc(prev), arc(node)
             x, y = (b, d) if a == c else (a, c)
-            out[("comparable", (min(a, b), max(a, b)))] = None
-            out[("comparable", (min(c, d), max(c, d)))] = None
-            out[("incomparable", (min(x, y), max(x, y)))] = None
+            out[Requirement(Kind.COMPARABLE, (a, b))] = None
+            out[Requirement(Kind.COMPARABLE, (c, d))] = None
+            out[Requirement(Kind.INCOMPARABLE, (x, y))] = None
             node = prev
     return list(out)
 
@@ -505,6 +502,6 @@ def _conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:
     for u, w in zip(path, path[1:]):
         (a, b), (c, d) = arc(u), arc(w)
         x, y = (b, d) if a == c else (a, c)
-        core.append(("comparable", (min(a, b), max(a, b))))
-        core.append(("incomparable", (min(x, y), max(x, y))))
+        core.append(Requirement(Kind.COMPARABLE, (a, b)))
+        core.append(Requirement(Kind.INCOMPARABLE, (x, y)))
     return list(dict.fromkeys(core))

@@ -21,10 +21,10 @@ Interface (stable)
 * ``solve(assumptions=(), keep=None, time_limit=None, deadline=None)`` → ``True`` (feasible:
   ``order()`` is the strict partial order, ``model`` the raw model), ``False`` (infeasible:
   ``core()``), ``None`` (time limit reached).  With selectors on, ``keep=None`` switches every
-  requirement on; ``keep`` = a collection of requirement keys ``(kind, pair)`` switches on only
+  requirement on; ``keep`` = a collection of requirements (:class:`Requirement`) switches on only
   those (all others are dropped, their pairs open), including selectors the loop creates later.
   ``assumptions`` are extra literals (e.g. for enumeration or MaxSAT-style search).
-* ``core()`` → requirement keys of the last refutation; ``core_literals()`` → raw literals.
+* ``core()`` → requirements of the last refutation; ``core_literals()`` → raw literals.
 * ``add_clause(clause)`` → add a permanent clause (e.g. a blocking clause); ``enc`` is the
   :class:`~satorder.sat.encoding.Encoding`; ``stats`` counts variables, clauses, rounds, seconds.
 * Close it with ``close()`` or use ``with SatSession(...) as s:``.
@@ -50,7 +50,7 @@ from collections.abc import Collection, Iterable
 from satorder.errors import InputError
 from satorder.model.answer import Answer
 from satorder.model.problem import Problem
-from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN, Requirement
 from satorder.sat.encoding import Encoding, Key
 
 DEFAULT_SOLVER = "cadical195"
@@ -291,7 +291,7 @@ class SatSession:
         return list(self._core or [])
 
     def core(self) -> list[Key]:
-        """Requirement keys ``(kind, pair)`` whose selectors took part in the last refutation."""
+        """Requirements whose selectors took part in the last refutation."""
         req = self.enc.requirement_of
         return [req[lit] for lit in self._core or () if lit in req]
 
@@ -338,7 +338,7 @@ def solve_sat(problem: Problem, solver: str | None = None,
 
 def find_core(problem: Problem, solver: str | None = None, deadline: float | None = None,
               shrink_seconds: float = SHRINK_SECONDS):
-    """A core ``[{"kind", "pair"}]`` of an infeasible problem, shrunk while time allows
+    """A core (a list of :class:`Requirement`) of an infeasible problem, shrunk while time allows
     (clause-set refinement, then deletion), or ``None`` if the deadline passes first.
 
     Returns ``(core, stats)``; the core is minimal when ``stats["minimal"]`` is True.
@@ -375,7 +375,7 @@ def find_core(problem: Problem, solver: str | None = None, deadline: float | Non
         stats = dict(s.stats)
     stats["size"] = len(core)
     stats["minimal"] = minimal
-    return [{"kind": kind, "pair": pair} for kind, pair in core], stats
+    return core, stats
 
 
 def _core_via_clauses(session: SatSession, problem: Problem, solver: str,
@@ -418,10 +418,7 @@ def _shrink_candidate(problem: Problem, keys: list[Key], solver: str, deadline: 
     stats["candidate"] = len(keys)
     if core is None:
         return None, stats
-    for r in core:
-        a, b = r["pair"]
-        r["pair"] = (ids_back[a], ids_back[b])
-    return core, stats
+    return [Requirement(r.kind, (ids_back[r.pair[0]], ids_back[r.pair[1]])) for r in core], stats
 
 
 def _sub_problem(problem: Problem, keys: list[Key]):

@@ -1,7 +1,8 @@
 """Minimal cores, smallest cores and minimal correction sets over a set of requirements.
 
-A *requirement* is ``{"kind": k, "pair": (a, b)}`` with ``k`` one of ``comparable``,
-``incomparable``, ``fixed``, ``forbidden`` (item ids).  A set of requirements is *feasible* when
+A *requirement* is a :class:`~satorder.model.requirement.Requirement` ``(kind, pair)`` over item
+ids, of kind ``comparable``, ``incomparable``, ``fixed`` or ``forbidden``.  A set of
+requirements is *feasible* when
 some strict partial order meets every member, all pairs it does not name being open.
 
 * A **core** (minimal unsatisfiable subset, MUS) is an infeasible set from which dropping any one
@@ -27,8 +28,9 @@ items named" with one variable per ordered pair and transitivity over every trip
 requirement guarded by its own selector literal, so it is meant for the small item sets of a
 core; larger universes plug in any object with the same ``check`` method.
 
->>> reqs = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 2)},
-...         {"kind": "incomparable", "pair": (0, 2)}, {"kind": "comparable", "pair": (2, 3)}]
+>>> from satorder.model.requirement import Requirement as R
+>>> reqs = [R("fixed", (0, 1)), R("fixed", (1, 2)), R("incomparable", (0, 2)),
+...         R("comparable", (2, 3))]
 >>> oracle = RequirementOracle(reqs)
 >>> minimal_core(oracle, range(4))
 [0, 1, 2]
@@ -45,7 +47,8 @@ from pysat.examples.rc2 import RC2
 from pysat.formula import WCNF
 from pysat.solvers import Solver
 
-KINDS = ("comparable", "incomparable", "fixed", "forbidden")
+from satorder.model.requirement import Kind, Requirement, items_of
+
 SOLVER = "glucose42"  # the independent checks in certify.py use a different solver (MiniSat)
 
 
@@ -56,9 +59,9 @@ class RequirementOracle:
     active requirements, or ``(False, core)`` with a subset of ``active`` that is infeasible.
     """
 
-    def __init__(self, requirements: list[dict]):
+    def __init__(self, requirements: list[Requirement]):
         self.requirements = list(requirements)
-        items = sorted({v for r in self.requirements for v in r["pair"]})
+        items = items_of(self.requirements)
         self.items = items
         var: dict[tuple[int, int], int] = {}
         for a, b in permutations(items, 2):
@@ -69,18 +72,15 @@ class RequirementOracle:
         self._by_selector = {s: k for k, s in enumerate(self.selector)}
         clauses = [[-var[a, b], -var[b, a]] for a, b in permutations(items, 2) if a < b]
         clauses += [[-var[a, b], -var[b, c], var[a, c]] for a, b, c in permutations(items, 3)]
-        for s, r in zip(self.selector, self.requirements):
-            kind, (a, b) = r["kind"], r["pair"]
-            if kind == "comparable":
+        for s, (kind, (a, b)) in zip(self.selector, self.requirements):
+            if kind == Kind.COMPARABLE:
                 clauses.append([-s, var[a, b], var[b, a]])
-            elif kind == "incomparable":
+            elif kind == Kind.INCOMPARABLE:
                 clauses += [[-s, -var[a, b]], [-s, -var[b, a]]]
-            elif kind == "fixed":
+            elif kind == Kind.FIXED:
                 clauses.append([-s, var[a, b]])
-            elif kind == "forbidden":
+            else:  # Kind.FORBIDDEN
                 clauses.append([-s, -var[a, b]])
-            else:
-                raise ValueError(f"unknown requirement kind {kind!r}")
         self.clauses = clauses
         self.solver = Solver(name=SOLVER, bootstrap_with=clauses)
         self.calls = 0
@@ -104,15 +104,13 @@ class RequirementOracle:
         """Indices of the requirements met by the order with these arcs (transitively closed)."""
         present = set(arcs)
         out = []
-        for k, r in enumerate(self.requirements):
-            a, b = r["pair"]
-            kind = r["kind"]
+        for k, (kind, (a, b)) in enumerate(self.requirements):
             ab, ba = (a, b) in present, (b, a) in present
             if (
-                (kind == "comparable" and (ab or ba))
-                or (kind == "incomparable" and not (ab or ba))
-                or (kind == "fixed" and ab)
-                or (kind == "forbidden" and not ab)
+                (kind == Kind.COMPARABLE and (ab or ba))
+                or (kind == Kind.INCOMPARABLE and not (ab or ba))
+                or (kind == Kind.FIXED and ab)
+                or (kind == Kind.FORBIDDEN and not ab)
             ):
                 out.append(k)
         return out
@@ -135,31 +133,29 @@ class SessionOracle:
     posed as a problem of their own: only their pairs are comparable or unordered, all other
     pairs open."""
 
-    def __init__(self, requirements: list[dict], time_limit: float | None = None):
+    def __init__(self, requirements: list[Requirement], time_limit: float | None = None):
         from satorder.model.problem import Problem
         from satorder.sat.engine import SatSession
 
         self.requirements = list(requirements)
-        self.items = sorted({v for r in self.requirements for v in r["pair"]})
+        self.items = items_of(self.requirements)
         pos = {v: k for k, v in enumerate(self.items)}
         n = len(self.items)
         adj: list[set[int]] = [set() for _ in range(n)]
         inc: list[set[int]] = [set() for _ in range(n)]
         fixed, forbidden = [], []
         self.keys = []
-        for r in self.requirements:
-            a, b = pos[r["pair"][0]], pos[r["pair"][1]]
-            kind = r["kind"]
-            if kind in ("comparable", "incomparable"):
-                (adj if kind == "comparable" else inc)[a].add(b)
-                (adj if kind == "comparable" else inc)[b].add(a)
-                self.keys.append((kind, (min(a, b), max(a, b))))
+        for kind, (a, b) in self.requirements:
+            a, b = pos[a], pos[b]
+            if kind in (Kind.COMPARABLE, Kind.INCOMPARABLE):
+                (adj if kind == Kind.COMPARABLE else inc)[a].add(b)
+                (adj if kind == Kind.COMPARABLE else inc)[b].add(a)
             else:
-                (fixed if kind == "fixed" else forbidden).append((a, b))
-                if kind == "fixed":
+                (fixed if kind == Kind.FIXED else forbidden).append((a, b))
+                if kind == Kind.FIXED:
                     adj[a].add(b)
                     adj[b].add(a)
-                self.keys.append((kind, (a, b)))
+            self.keys.append(Requirement(kind, (a, b)))
         sub = Problem(items=[str(v) for v in self.items], adj=adj, incomparable=inc,
                       fixed=fixed, forbidden=forbidden)
         self.session = SatSession(sub, selectors=True)
@@ -190,9 +186,9 @@ class SessionOracle:
         self.close()
 
 
-def core_oracle(requirements: list[dict], all_triples_items: int = 30):
+def core_oracle(requirements: list[Requirement], all_triples_items: int = 30):
     """The all-triples oracle for few items, the SAT engine's session for more (when present)."""
-    items = len({v for r in requirements for v in r["pair"]})
+    items = len(items_of(requirements))
     if items > all_triples_items:
         try:
             return SessionOracle(requirements)

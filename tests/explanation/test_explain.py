@@ -19,12 +19,12 @@ from satorder.errors import CertificateError
 from satorder.explanation.derivation import build_derivation
 from satorder.explanation.explain import explain
 from satorder.explanation.requirements import requirements
+from satorder.model.requirement import Requirement
 from satorder.sat.mus import RequirementOracle, minimal_core
 
 
 def meets(arcs, r) -> bool:
-    a, b = r["pair"]
-    kind = r["kind"]
+    kind, (a, b) = r
     if kind == "comparable":
         return (a, b) in arcs or (b, a) in arcs
     if kind == "incomparable":
@@ -73,8 +73,8 @@ def test_status_and_cores_against_brute_force():
         infeasible += 1
         core = e.core
         # every member is a requirement of the problem; infeasible alone; minimal
-        keys = {(r["kind"], tuple(r["pair"])) for r in reqs}
-        assert all((r["kind"], tuple(r["pair"])) in keys for r in core)
+        assert all(isinstance(r, Requirement) for r in core)
+        assert set(core) <= set(reqs)
         assert not brute_feasible(p.n, core)
         for k in range(len(core)):
             assert brute_feasible(p.n, core[:k] + core[k + 1:])
@@ -124,8 +124,7 @@ def test_repairs_make_the_problem_feasible_and_are_minimal():
         sizes = []
         for rep in e.repairs:
             assert rep.verified
-            drop = {(r["kind"], tuple(r["pair"])) for r in rep.drop}
-            kept = [r for r in reqs if (r["kind"], tuple(r["pair"])) not in drop]
+            kept = [r for r in reqs if r not in set(rep.drop)]
             assert brute_feasible(p.n, kept)
             # minimal: putting back any one dropped requirement makes it infeasible again
             for r in rep.drop:
@@ -155,9 +154,9 @@ def test_plain_core_uses_only_witness_pairs_on_a_large_graph():
     p = Problem.from_networkx(g)
     e = explain(p, repairs=2)
     assert sorted(p.names(e.obstruction)) == sorted(str(v) for v in cyc)
-    assert {p.items[v] for r in e.core for v in r["pair"]} == {str(v) for v in cyc}
+    assert {p.items[v] for r in e.core for v in r.pair} == {str(v) for v in cyc}
     # C7 needs its 7 edges and 7 unordered witnesses (one forcing step each)
-    assert sorted(r["kind"] for r in e.core) == ["comparable"] * 7 + ["incomparable"] * 7
+    assert sorted(r.kind for r in e.core) == ["comparable"] * 7 + ["incomparable"] * 7
     assert e.repairs and all(r.verified for r in e.repairs)
     for rep in e.repairs:
         assert len(rep.drop) == 1
@@ -167,9 +166,8 @@ def test_plain_core_uses_only_witness_pairs_on_a_large_graph():
 def _apply(p: Problem, drop):
     """Comparability graph of the repair's order must lie between kept and kept + dropped."""
     adj = [set(s) for s in p.adj]
-    for r in drop:
-        a, b = r["pair"]
-        if r["kind"] == "comparable":
+    for kind, (a, b) in drop:
+        if kind == "comparable":
             adj[a].discard(b)
             adj[b].discard(a)
         else:
@@ -216,8 +214,8 @@ def test_replay_accepts_printed_derivations_and_rejects_tampering():
 
 def test_derivation_of_a_feasible_set_is_none():
     # kiln < loom, loom < quay with kiln, quay open: an order exists
-    core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 2)},
-            {"kind": "comparable", "pair": (0, 2)}]
+    core = [Requirement("fixed", (0, 1)), Requirement("fixed", (1, 2)),
+            Requirement("comparable", (0, 2))]
     assert build_derivation(core) is None
 
 
@@ -238,9 +236,9 @@ def test_derivation_with_nested_cases():
 
 
 def test_minimal_core_from_the_oracle_is_minimal():
-    reqs = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 2)},
-            {"kind": "fixed", "pair": (2, 0)}, {"kind": "incomparable", "pair": (0, 2)},
-            {"kind": "comparable", "pair": (3, 0)}]
+    reqs = [Requirement("fixed", (0, 1)), Requirement("fixed", (1, 2)),
+            Requirement("fixed", (2, 0)), Requirement("incomparable", (0, 2)),
+            Requirement("comparable", (3, 0))]
     with RequirementOracle(reqs) as oracle:
         core = minimal_core(oracle, range(5))
     assert core in ([0, 1, 2], [0, 1, 3])  # a cycle of fixed arcs, or a<b<c with a, c unordered
@@ -337,7 +335,7 @@ def test_repairs_on_a_larger_graph_grow_past_the_first_obstruction():
     e = explain(p, repairs=3)
     assert e.repairs and all(r.verified for r in e.repairs)
     first = e.repairs[0].drop
-    assert [(r["kind"], sorted(p.names(r["pair"]))) for r in first] == \
+    assert [(r.kind, sorted(p.names(r.pair))) for r in first] == \
         [("comparable", ["kiln", "loom"])]
     for rep in e.repairs:
         certify.check_order(Problem(items=p.items, adj=_apply(p, rep.drop)), rep.succ)
@@ -384,7 +382,7 @@ def test_long_odd_cycle_core_is_minimal_and_explained():
     p = Problem.from_networkx(nx.cycle_graph(31))
     e = explain(p)
     assert len(e.obstruction) == 31
-    assert sorted(r["kind"] for r in e.core) == ["comparable"] * 31 + ["incomparable"] * 31
+    assert sorted(r.kind for r in e.core) == ["comparable"] * 31 + ["incomparable"] * 31
     check_derivation(e.core_json(), e.derivation_json())
 
 
@@ -395,8 +393,8 @@ def test_minimality_witness_checker_rejects_bad_witnesses():
     p = Problem.from_lists(comparable=[("kiln", "loom"), ("loom", "quay")],
                            incomparable=[("kiln", "quay")],
                            fixed=[("kiln", "loom"), ("loom", "quay")])
-    core = [{"kind": "fixed", "pair": (0, 1)}, {"kind": "fixed", "pair": (1, 2)},
-            {"kind": "incomparable", "pair": (0, 2)}]
+    core = [Requirement("fixed", (0, 1)), Requirement("fixed", (1, 2)),
+            Requirement("incomparable", (0, 2))]
     good = {0: [(1, 2)], 1: [(0, 1)], 2: [(0, 1), (1, 2), (0, 2)]}
     check_minimality_witnesses(p, core, good)
     with pytest.raises(CertificateError):  # not transitive
@@ -404,7 +402,7 @@ def test_minimality_witness_checker_rejects_bad_witnesses():
     with pytest.raises(CertificateError):  # misses member 2 (orders kiln, quay)
         check_minimality_witnesses(p, core, {**good, 0: [(1, 2), (0, 2)]})
     with pytest.raises(CertificateError):  # a requirement the problem does not have
-        check_minimality_witnesses(p, core + [{"kind": "forbidden", "pair": (2, 0)}],
+        check_minimality_witnesses(p, core + [Requirement("forbidden", (2, 0))],
                                    {**good, 3: [(0, 1)]})
 
 

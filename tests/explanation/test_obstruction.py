@@ -149,7 +149,7 @@ def test_explain_reports_the_obstruction_and_its_core_stays_inside_it():
     assert e.status == "infeasible"
     ob = set(e.obstruction)
     assert brute_minimal(g, [int(p.items[v]) for v in ob])
-    assert {v for r in e.core for v in r["pair"]} <= ob
+    assert {v for r in e.core for v in r.pair} <= ob
 
 
 def test_minimality_check_rejects_non_minimal_sets():

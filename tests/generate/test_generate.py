@@ -22,6 +22,7 @@ from satorder.generate import (
     write_random_bipartite,
 )
 from satorder.io.readers import parse_edge_list, parse_json
+from satorder.model.requirement import Requirement
 from satorder.pipeline.solve import solve
 
 
@@ -173,7 +174,7 @@ def test_side_constraints_feasible_or_planted_conflict(conflict):
                 core.append(("incomparable", (fx[0][1], fb[0][1])))  # {x, d} unordered
                 core.append(("comparable", fb[0]))
             rid = [p.index[name] for name in inst.names]  # generator id -> reader id
-            core_ids = [{"kind": k, "pair": [rid[a], rid[b]]} for k, (a, b) in core]
+            core_ids = [Requirement(k, (rid[a], rid[b])) for k, (a, b) in core]
             certify.check_core_infeasible(p, core_ids, minimal=True)
 
 

@@ -8,7 +8,9 @@ import pickle
 
 import pytest
 
-from satorder import Problem
+from satorder import Problem, explain, solve
+from satorder.generate import generate
+from satorder.io.readers import parse_json
 from satorder.model.answer import Answer
 from satorder.model.requirement import (
     ARC_KINDS,
@@ -118,3 +120,54 @@ def test_answer_status_is_typed_even_when_given_a_string():
     assert Answer(p, "unknown", "sat").status is Status.UNKNOWN
     with pytest.raises(ValueError):
         Answer(p, "solved", "sat")
+def _infeasible_problem() -> Problem:
+    # a < b < c fixed, {a, c} must stay unordered, plus an open pair: infeasible
+    return Problem.from_lists(comparable=[("loom", "weir")], incomparable=[("kiln", "quay")],
+                              fixed=[("kiln", "loom"), ("loom", "quay")], items=NAMES)
+
+
+def test_solve_json_core_reads_back_to_the_answers_core():
+    p = _infeasible_problem()
+    ans = solve(p)
+    assert ans.status is Status.INFEASIBLE and ans.verified
+    assert all(isinstance(r, Requirement) for r in ans.core)
+    doc = json.loads(ans.to_json_text())
+    assert doc["status"] == "infeasible"
+    back = [Requirement.from_json(r, p.index) for r in doc["core"]]
+    assert back == ans.core
+    assert sorted(map(tuple, (r["pair"] for r in doc["core"]))) == \
+        [("kiln", "loom"), ("kiln", "quay"), ("loom", "quay")]
+
+
+def test_explain_json_core_repairs_and_derivation_read_back():
+    p = _infeasible_problem()
+    e = explain(p, repairs=3)
+    assert e.status is Status.INFEASIBLE and e.verified
+    doc = json.loads(json.dumps(e.to_json()))
+    assert [Requirement.from_json(r, p.index) for r in doc["core"]] == e.core
+    assert {frozenset(p.names(r.pair)) for r in e.core} == \
+        {frozenset(("kiln", "loom")), frozenset(("loom", "quay")), frozenset(("kiln", "quay"))}
+    # each repair drops one of the three core members: its JSON reads back to it
+    assert len(doc["repairs"]) == 3
+    for rep, js in zip(e.repairs, doc["repairs"]):
+        assert [Requirement.from_json(r, p.index) for r in js["drop"]] == rep.drop
+        assert len(rep.drop) == 1 and rep.drop[0] in e.core
+    # the derivation cites core rows by index
+    cited = {k for st in doc["derivation"] for k in st["requirements"]}
+    assert cited <= set(range(len(doc["core"])))
+
+
+def test_engine_cores_mapped_back_from_a_sub_problem_keep_pairs_in_id_order():
+    # the SAT engine shrinks this core on the sub-problem of its candidate requirements and
+    # maps the ids back; unordered pairs must come back in id order like every other core
+    # (before requirements were typed, this path printed e.g. comparable [5, 4])
+    inst = generate("side-constraints", 12, seed=1, conflict="transitivity")
+    p = parse_json(inst.to_json_text(), "<side-constraints>")
+    ans = solve(p, engine="sat")
+    assert ans.status == "infeasible" and ans.verified
+    assert ans.stats["core"]["method"] == "clause provenance"
+    doc = json.loads(ans.to_json_text())
+    ids = [(r["kind"], [p.index[x] for x in r["pair"]]) for r in doc["core"]]
+    unordered = [pair for kind, pair in ids if kind in ("comparable", "incomparable")]
+    assert len(unordered) >= 2 and all(a < b for a, b in unordered)
+    assert [Requirement(kind, pair) for kind, pair in ids] == ans.core
