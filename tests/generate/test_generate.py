@@ -8,8 +8,7 @@ import os
 
 import networkx as nx
 import pytest
-from conftest import brute_force_orientable
-from order_reference import count_orientations, reference_feasible
+from order_reference import brute_force_orientable, count_orientations, reference_feasible
 
 from satorder import Problem, certify
 from satorder.cli.main import main

@@ -6,7 +6,7 @@ import random
 
 import networkx as nx
 import pytest
-from conftest import all_graphs, brute_force_orientable
+from order_reference import all_graphs, brute_force_orientable
 
 from satorder import Problem, certify
 from satorder.errors import CertificateError
