@@ -6,7 +6,7 @@ May import: :mod:`satorder.io`, :mod:`satorder.model`, :mod:`satorder.errors`.
 from satorder.generate.families import ABOUT, FAMILIES, generate
 from satorder.generate.instance import Instance
 from satorder.generate.large import write_dense_orders, write_random_bipartite
-from satorder.generate.suites import RECIPES, instance_file_name, make_suite
+from satorder.generate.suites import RECIPES, instance_file_name, make_suite, suite_specs
 
 __all__ = ["ABOUT", "FAMILIES", "RECIPES", "Instance", "generate", "instance_file_name",
-           "make_suite", "write_dense_orders", "write_random_bipartite"]
+           "make_suite", "suite_specs", "write_dense_orders", "write_random_bipartite"]
