@@ -24,10 +24,12 @@ demo: $(STAMP)
 
 test: $(TESTSTAMP)
 	$(BIN)/ruff check satorder tests
+	$(BIN)/lint-imports
 	$(BIN)/python -m pytest
 
 lint: $(TESTSTAMP)
 	$(BIN)/ruff check satorder tests
+	$(BIN)/lint-imports
 
 bench: $(TESTSTAMP)
 	$(BIN)/python benchmarks/targets.py --out bench-results.json

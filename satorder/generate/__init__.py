@@ -1,6 +1,9 @@
 """Seeded generators of problem families, suite recipes and large edge lists for benchmarks.
 
-May import: :mod:`satorder.io`, :mod:`satorder.model`, :mod:`satorder.errors`.
+May import: :mod:`satorder.explanation`, :mod:`satorder.measure`, :mod:`satorder.pipeline`,
+:mod:`satorder.sat`, :mod:`satorder.graph`, :mod:`satorder.certify`, :mod:`satorder.io`,
+:mod:`satorder.model`, :mod:`satorder.errors`, :mod:`satorder.jit`.  (It uses only the last
+few: generating needs no engine.)
 """
 
 from satorder.generate.families import ABOUT, FAMILIES, generate
