@@ -8,11 +8,12 @@ each folder runs alone.
   orientations of a small graph.
 * :func:`all_posets` — every strict partial order on up to six items (the counts are OEIS
   A001035, checked in ``tests/sat/test_sat.py``).
-* :func:`meets`, :func:`brute_force_feasible`, :func:`brute_count` — a problem's answers among
-  all posets.
+* :func:`brute_answers`, :func:`brute_force_feasible`, :func:`brute_count` — a problem's
+  answers among all posets.
 * :func:`reference_feasible` — the textbook direct CNF encoding (a variable per ordered pair,
   a clause per item triple for transitivity; common practice), solved with MiniSat.
-* :func:`random_problem`, :func:`random_requirements` — seeded random problems.
+* :func:`random_problem`, :func:`random_requirements` — seeded random problems;
+  :func:`random_order` — a seeded random order.
 """
 
 from __future__ import annotations
@@ -25,6 +26,7 @@ import networkx as nx
 from pysat.solvers import Solver
 
 from satorder.errors import InputError
+from satorder.model.order import transitive_closure
 from satorder.model.problem import Problem, ProblemBuilder
 
 
@@ -88,27 +90,26 @@ def all_posets(n: int) -> tuple[frozenset[tuple[int, int]], ...]:
     return tuple(orders)
 
 
-def meets(problem: Problem, arcs: frozenset) -> bool:
-    """Whether the order ``arcs`` meets every hard requirement of ``problem``."""
-    for a, b in problem.comparable_pairs():
-        if (a, b) not in arcs and (b, a) not in arcs:
-            return False
-    for a, b in problem.incomparable_pairs():
-        if (a, b) in arcs or (b, a) in arcs:
-            return False
-    if any(arc not in arcs for arc in problem.fixed):
-        return False
-    return not any(arc in arcs for arc in problem.forbidden)
+def brute_answers(problem: Problem):
+    """Each poset on the problem's items that meets every hard requirement."""
+    comparable = list(problem.comparable_pairs())
+    unordered = list(problem.incomparable_pairs())
+    fixed, forbidden = problem.fixed, problem.forbidden
+    for arcs in all_posets(problem.n):
+        if all((a, b) in arcs or (b, a) in arcs for a, b in comparable) and \
+                all((a, b) not in arcs and (b, a) not in arcs for a, b in unordered) and \
+                all(arc in arcs for arc in fixed) and all(arc not in arcs for arc in forbidden):
+            yield arcs
 
 
 def brute_force_feasible(problem: Problem) -> bool:
     """Whether some poset on the problem's items meets every hard requirement."""
-    return any(meets(problem, arcs) for arcs in all_posets(problem.n))
+    return next(brute_answers(problem), None) is not None
 
 
 def brute_count(problem: Problem) -> int:
     """The number of posets on the problem's items meeting every hard requirement."""
-    return sum(1 for arcs in all_posets(problem.n) if meets(problem, arcs))
+    return sum(1 for _ in brute_answers(problem))
 
 
 def reference_feasible(problem) -> bool:
@@ -188,3 +189,12 @@ def random_requirements(n: int, rng: random.Random, open_pairs: bool) -> Problem
     return Problem.from_lists(comparable=comparable,
                               incomparable=incomparable if open_pairs else "others",
                               fixed=fixed, forbidden=forbidden, items=names)
+
+
+def random_order(n: int, p: float, rng: random.Random) -> list[set[int]]:
+    """Successor sets of the transitive closure of a random DAG (each pair an arc with
+    probability p) on a shuffled labelling."""
+    perm = list(range(n))
+    rng.shuffle(perm)
+    arcs = [(perm[i], perm[j]) for i in range(n) for j in range(i + 1, n) if rng.random() < p]
+    return transitive_closure(n, arcs)

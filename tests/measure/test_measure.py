@@ -9,6 +9,7 @@ import random
 
 import networkx as nx
 import pytest
+from order_reference import random_order
 
 from satorder import Problem, solve
 from satorder.certify.measure import (
@@ -29,15 +30,6 @@ from satorder.measure.figures import (
     width,
 )
 from satorder.measure.summary import measure
-from satorder.model.order import transitive_closure
-
-
-def random_order(n, p, rng):
-    """Transitive closure of a random DAG on a shuffled labelling (invented test data)."""
-    perm = list(range(n))
-    rng.shuffle(perm)
-    arcs = [(perm[i], perm[j]) for i in range(n) for j in range(i + 1, n) if rng.random() < p]
-    return transitive_closure(n, arcs)
 
 
 def is_chain(succ, items):

@@ -7,7 +7,7 @@ import json
 import random
 
 import pytest
-from order_reference import all_posets, brute_count, random_requirements
+from order_reference import brute_answers, brute_count, random_requirements
 
 from satorder import Problem, solve
 from satorder.certify.prefer import check_cost
@@ -19,16 +19,7 @@ def brute_optimum(problem: Problem) -> int | None:
     """Least total weight of unmet preferences over every poset meeting the hard requirements
     (None if none does), by trying all labelled posets."""
     best = None
-    n = problem.n
-    comparable = list(problem.comparable_pairs())
-    unordered = [(a, b) for a, b in itertools.combinations(range(n), 2)
-                 if problem.must_be_unordered(a, b)]
-    for rel in all_posets(n):
-        if not (all((a, b) in rel or (b, a) in rel for a, b in comparable)
-                and all((a, b) not in rel and (b, a) not in rel for a, b in unordered)
-                and all(arc in rel for arc in problem.fixed)
-                and all(arc not in rel for arc in problem.forbidden)):
-            continue
+    for rel in brute_answers(problem):
         cost = sum(w for a, b, w in problem.prefer if (a, b) not in rel)
         if best is None or cost < best:
             best = cost
