@@ -30,6 +30,7 @@ def write(tmp_path, name, content, mode="w"):
     return str(path)
 
 
+@pytest.mark.slow
 def test_json_contract_for_a_feasible_edge_list(tmp_path):
     f = write(tmp_path, "g.txt", "# a path\nkiln loom\nloom quay\n")
     code, out, err = run("solve", f, "--json")
@@ -43,6 +44,7 @@ def test_json_contract_for_a_feasible_edge_list(tmp_path):
     assert len(order) == 2 and doc["verified"] is True
 
 
+@pytest.mark.slow
 def test_json_contract_for_an_infeasible_cycle(tmp_path):
     f = write(tmp_path, "c5.txt", "a b\nb c\nc d\nd e\ne a\n")
     code, out, _ = run("solve", f, "--json")
@@ -54,6 +56,7 @@ def test_json_contract_for_an_infeasible_cycle(tmp_path):
     assert all(step["because"] for step in chain[1:])
 
 
+@pytest.mark.slow
 def test_human_output_shows_chain_and_points_to_explain(tmp_path):
     f = write(tmp_path, "c5.txt", "a b\nb c\nc d\nd e\ne a\n")
     code, out, _ = run("solve", f)
@@ -62,6 +65,7 @@ def test_human_output_shows_chain_and_points_to_explain(tmp_path):
     assert "Forcing chain" in out and "reverse of step 1" in out
 
 
+@pytest.mark.slow
 def test_out_file_is_written_whole(tmp_path):
     f = write(tmp_path, "g.json", json.dumps({"comparable": [["x", "y"]]}))
     target = tmp_path / "answer.json"
@@ -114,6 +118,7 @@ def test_bad_input_gives_one_line_and_exit_2(tmp_path, capsys, name, content, ne
     assert needle in err and name in err
 
 
+@pytest.mark.slow
 def test_binary_and_missing_files(tmp_path):
     f = write(tmp_path, "blob.bin", b"\x00\x01\x02abc", mode="wb")
     code, _, err = run("solve", f)
@@ -163,6 +168,7 @@ def test_python_api_builders_validate():
     assert solve(p).to_networkx().number_of_edges() == 3
 
 
+@pytest.mark.slow
 def test_demo_runs():
     code, out, err = run("demo")
     assert code == 0, err

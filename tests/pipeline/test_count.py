@@ -39,7 +39,7 @@ def test_sum_of_counts_over_all_labelled_graphs_is_a001035(n):
     assert total == A001035[n]
 
 
-@pytest.mark.parametrize("n", [6, 7])
+@pytest.mark.parametrize("n", [6, pytest.param(7, marks=pytest.mark.slow)])
 def test_a001035_through_unlabelled_graphs(n):
     # The same sum over labelled graphs, grouped by isomorphism class: each graph of the
     # networkx atlas (all graphs up to 7 nodes, Read & Wilson, "An Atlas of Graphs") stands for

@@ -46,6 +46,7 @@ def test_every_small_graph_sat_agrees_with_forcing(n):
         _agree(p, f.feasible)
 
 
+@pytest.mark.slow
 def test_random_plain_graphs_sat_agrees_with_forcing():
     rnd = random.Random(3)
     for _ in range(400):
