@@ -96,7 +96,7 @@ def test_boolean_lattice_dimension():
 
 def test_permutation_orders_have_dimension_at_most_two():
     # permutation graphs are exactly the comparability graphs of orders of dimension <= 2
-    # (Dushnik & Miller 1941; DESIGN.md outside checks)
+    # (Dushnik & Miller 1941)
     rng = random.Random(2)
     for n in (5, 40, 400):
         perm = list(range(n))

@@ -182,7 +182,7 @@ def test_measure_cli_json_with_weights(tmp_path):
 
 
 def test_measure_cli_infeasible_and_bad_draw_name(tmp_path, capsys):
-    # a 5-cycle is not a comparability graph (DESIGN.md outside checks), so no order exists
+    # a 5-cycle is not a comparability graph (Golumbic 1980, ch. 5: odd holes), so no order exists
     f = tmp_path / "ring.txt"
     f.write_text("".join(f"r{i} r{(i + 1) % 5}\n" for i in range(5)))
     assert main(["measure", str(f), "--json"]) == 0

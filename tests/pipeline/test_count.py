@@ -43,8 +43,8 @@ def test_sum_of_counts_over_all_labelled_graphs_is_a001035(n):
 def test_a001035_through_unlabelled_graphs(n):
     # The same sum over labelled graphs, grouped by isomorphism class: each graph of the
     # networkx atlas (all graphs up to 7 nodes, Read & Wilson, "An Atlas of Graphs") stands for
-    # n!/|Aut(G)| labelled copies.  OEIS A001035: 130023 for n = 6; 6129859 for n = 7 (that
-    # value from memory, beyond the terms quoted in the design notes).
+    # n!/|Aut(G)| labelled copies.  OEIS A001035: 130023 for n = 6; 6129859 for n = 7 (the
+    # value for 7 recalled from memory).
     from networkx.algorithms.isomorphism import GraphMatcher
 
     expected = {6: 130023, 7: 6129859}[n]
