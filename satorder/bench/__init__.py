@@ -17,8 +17,3 @@ __all__ = ["EXPECTED_KEYS", "FAILED", "PROBLEM_EXTENSIONS", "SOLVED", "UNSOLVED"
            "find_unverified", "plan", "plot", "read_rows", "run_cluster", "run_isolated",
            "run_local", "sat_solver_names", "start_workers", "summarize"]
 
-
-__all__ = ["EXPECTED_KEYS", "FAILED", "PROBLEM_EXTENSIONS", "SOLVED", "UNSOLVED", "RowWriter",
-           "Run", "cactus_series", "check_backend", "discover", "execute", "find_problems",
-           "find_unverified", "plan", "plot", "read_rows", "run_cluster", "run_isolated",
-           "run_local", "sat_solver_names", "start_workers", "summarize"]
