@@ -170,6 +170,7 @@ def test_summary_counts_and_times():
 
 
 # --------------------------------------------------------------------------- the command
+@pytest.mark.slow
 def test_cli_runs_resumes_and_plots(tmp_path, capsys):
     d = _suite(tmp_path, PLAIN[:4] + [SIDE])
     out = tmp_path / "r.jsonl"
