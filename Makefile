@@ -23,12 +23,12 @@ demo: $(STAMP)
 	$(BIN)/satorder demo
 
 test: $(TESTSTAMP)
-	$(BIN)/ruff check satorder tests
+	$(BIN)/ruff check satorder tests benchmarks
 	$(BIN)/lint-imports
 	$(BIN)/python -m pytest
 
 lint: $(TESTSTAMP)
-	$(BIN)/ruff check satorder tests
+	$(BIN)/ruff check satorder tests benchmarks
 	$(BIN)/lint-imports
 
 bench: $(TESTSTAMP)
