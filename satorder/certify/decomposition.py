@@ -1,8 +1,7 @@
 """Independent check of a modular decomposition tree and of the count read from it.
 
-Written apart from :mod:`satorder.graph.modular` (which builds the tree) and sharing no code with
-it:
-it only walks the tree's nodes and the graph.  For every internal node with children
+Written apart from :mod:`satorder.graph.modular` (which builds the tree) and from every other
+engine, sharing no code with them: it only walks the tree's nodes and the graph.  For every internal node with children
 ``C1 … Ck`` it checks that
 
 * the leaves below the root are every item exactly once;
