@@ -1,8 +1,8 @@
 """Independent check of a modular decomposition tree and of the count read from it.
 
 Written apart from :mod:`satorder.graph.modular` (which builds the tree) and from every other
-engine, sharing no code with them: it only walks the tree's nodes and the graph.  For every internal node with children
-``C1 … Ck`` it checks that
+engine, sharing no code with them: it only walks the tree's nodes and the graph.  For every
+internal node with children ``C1 … Ck`` it checks that
 
 * the leaves below the root are every item exactly once;
 * each child is a module of the node (all of a child's items see the other children alike,
