@@ -23,11 +23,13 @@ demo: $(STAMP)
 	$(BIN)/satorder demo
 
 test: $(TESTSTAMP)
-	$(BIN)/ruff check satorder tests
+	$(BIN)/ruff check satorder tests benchmarks
+	$(BIN)/lint-imports
 	$(BIN)/python -m pytest
 
 lint: $(TESTSTAMP)
-	$(BIN)/ruff check satorder tests
+	$(BIN)/ruff check satorder tests benchmarks
+	$(BIN)/lint-imports
 
 bench: $(TESTSTAMP)
 	$(BIN)/python benchmarks/targets.py --out bench-results.json

@@ -1,6 +1,7 @@
 """``make bench``: the performance targets, measured on this machine in one run.
 
-Targets (DESIGN.md, performance section), each printed with the measured figure:
+Targets (the project's own, listed in DEVELOPERS.md under "Performance work"), each printed
+with the measured figure:
 
 1. 50,000 items, 1,000,000 comparable pairs, random bipartite: ``satorder solve FILE --json``
    (whole command: start-up, reading, forcing, certificate check, JSON output) within 2× the

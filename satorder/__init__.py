@@ -3,7 +3,7 @@ why none exists) out.
 
 >>> import satorder
 >>> p = satorder.Problem.from_lists(comparable=[("kiln", "loom"), ("loom", "quay")])
->>> satorder.pipeline.solve(p).status
+>>> satorder.solve(p).status
 'feasible'
 """
 

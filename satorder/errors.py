@@ -12,6 +12,8 @@ nothing else:
   ``AssertionError``, so that a test catching assertion failures cannot swallow it, nor it them.
 * :class:`TimeLimitReached` — work stopped at its time limit before it had anything to show.
   Most engines return status ``unknown`` (or a partial result marked so) instead of raising it.
+
+May import: nothing from satorder.
 """
 
 

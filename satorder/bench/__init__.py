@@ -1,6 +1,9 @@
 """Benchmarking instance suites: discovery, back ends, isolated runs, rows on disk, reports.
 
-May import: :mod:`satorder.pipeline`, :mod:`satorder.io`, engines, :mod:`satorder.certify`.
+May import: :mod:`satorder.explanation`, :mod:`satorder.measure`, :mod:`satorder.pipeline`,
+:mod:`satorder.sat`, :mod:`satorder.graph`, :mod:`satorder.certify`, :mod:`satorder.io`,
+:mod:`satorder.model`, :mod:`satorder.errors`, :mod:`satorder.jit`.  Not
+:mod:`satorder.generate` nor :mod:`satorder.render` (same layer, independent).
 """
 
 from satorder.bench.backends import check_backend, execute, sat_solver_names
@@ -14,8 +17,3 @@ __all__ = ["EXPECTED_KEYS", "FAILED", "PROBLEM_EXTENSIONS", "SOLVED", "UNSOLVED"
            "find_unverified", "plan", "plot", "read_rows", "run_cluster", "run_isolated",
            "run_local", "sat_solver_names", "start_workers", "summarize"]
 
-
-__all__ = ["EXPECTED_KEYS", "FAILED", "PROBLEM_EXTENSIONS", "SOLVED", "UNSOLVED", "RowWriter",
-           "Run", "cactus_series", "check_backend", "discover", "execute", "find_problems",
-           "find_unverified", "plan", "plot", "read_rows", "run_cluster", "run_isolated",
-           "run_local", "sat_solver_names", "start_workers", "summarize"]

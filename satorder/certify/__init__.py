@@ -1,10 +1,10 @@
 """Independent checks: every answer, core, derivation, count and figure the tool prints is
 re-checked here by code that did not produce it.
 
-May import: :mod:`satorder.model`, :mod:`satorder.errors`, and outside libraries (python-sat's
-plain solvers, numpy).  Never an engine (:mod:`satorder.graph`, :mod:`satorder.sat`,
-:mod:`satorder.measure`, :mod:`satorder.explanation`), so that a bug in an engine cannot
-hide in its own check.
+May import: :mod:`satorder.model`, :mod:`satorder.errors`, :mod:`satorder.jit` (numba
+loading, no algorithm), and outside libraries (python-sat's plain solvers, numpy).  Never an
+engine (graph, sat, measure, explanation, pipeline), so that a bug in an engine cannot hide in
+its own check.
 """
 
 from satorder.certify.chain import check_forcing_chain

@@ -1,9 +1,8 @@
 """Independent check of a modular decomposition tree and of the count read from it.
 
-Written apart from :mod:`satorder.graph.modular` (which builds the tree) and sharing no code with
-it:
-it only walks the tree's nodes and the graph.  For every internal node with children
-``C1 … Ck`` it checks that
+Written apart from :mod:`satorder.graph.modular` (which builds the tree) and from every other
+engine, sharing no code with them: it only walks the tree's nodes and the graph.  For every
+internal node with children ``C1 … Ck`` it checks that
 
 * the leaves below the root are every item exactly once;
 * each child is a module of the node (all of a child's items see the other children alike,
@@ -11,32 +10,45 @@ it only walks the tree's nodes and the graph.  For every internal node with chil
   child is then a module of the graph;
 * a ``series`` node's children are pairwise joined, a ``parallel`` node's pairwise apart, and a
   ``prime`` node has at least four children whose quotient is connected, has a connected
-  complement, and is a comparability graph whose edges form a single implication class
-  (decided by the forcing algorithm, :mod:`satorder.graph.forcing`), so it has exactly two
-  transitive orientations (Golumbic 1980, ch. 5: the orientations of a comparability graph are
-  the independent choices of a direction per implication class pair).
+  complement, and is a comparability graph whose edges form a single colour class (an
+  implication class together with its reverse), so it has exactly two transitive orientations
+  (Golumbic 1980, ch. 5: the orientations of a comparability graph are the independent choices
+  of a direction per colour class).
+
+The colour classes of a quotient are found here by a union-find of its edges with a parity bit,
+written for this check alone (it does not call the forcing engine): around each item ``v``, the
+edges to two neighbours that are not adjacent are Γ-related (Golumbic 1980, §5.1), so edges to
+all neighbours in one connected component of the complement of ``G[N(v)]`` fall into one class,
+each pointing away from ``v`` exactly when the others do.  The parity records, for each edge,
+whether "away from ``v``" means from its smaller to its larger item; two constraints that
+disagree mean some implication class holds an arc and its reverse, so the quotient is not a
+comparability graph (Golumbic 1980, Theorem 5.4 as recalled from memory: a graph is a
+comparability graph exactly when no implication class meets its own reverse).
 
 Children of a series node are then co-connected (a parallel child is disconnected and a prime
 child co-connected), so they are the co-components and contribute k!; the count of transitive
 orientations is the product of the factors (Gallai 1967), recomputed here.
 
-The work is the sum over items of degree × depth; trees whose work exceeds ``budget`` are not
-checked (the function returns False).
+The work is the sum over items of degree × depth, plus the set scans and unions of the colour
+class search in each prime quotient (counted as it goes); a tree whose work exceeds ``budget``
+is not checked (the function returns None).
 """
 
 from __future__ import annotations
 
+from itertools import chain
 from math import factorial
 
+import numpy as np
+
 from satorder.errors import CertificateError
+from satorder.jit import HAVE_NUMBA, run
 
 
 def check_decomposition(adj: list[set[int]], tree, budget: int = 30_000_000) -> int | None:
     """Check ``tree`` against the graph ``adj``; returns the number of transitive orientations
     it implies, or None when the check would exceed ``budget`` steps.  Raises
     :class:`CertificateError` on any defect."""
-    from satorder.graph.forcing import transitive_orientation
-
     n = len(adj)
     order = []  # (node, depth), parents first
     stack = [(tree, 0)]
@@ -54,7 +66,8 @@ def check_decomposition(adj: list[set[int]], tree, budget: int = 30_000_000) -> 
         stack.extend((c, d + 1) for c in node.children)
     if min(leaf_depth, default=0) < 0:
         raise CertificateError("some item is not a leaf of the tree")
-    if sum(len(adj[x]) * (leaf_depth[x] + 1) + leaf_depth[x] for x in range(n)) > budget:
+    budget -= sum(len(adj[x]) * (leaf_depth[x] + 1) + leaf_depth[x] for x in range(n))
+    if budget < 0:
         return None
     members: dict[int, list[int]] = {}
     for node, _ in reversed(order):  # children before parents
@@ -104,16 +117,112 @@ def check_decomposition(adj: list[set[int]], tree, budget: int = 30_000_000) -> 
             if k < 4 or not _connected(q) or not _co_connected(q):
                 raise CertificateError("a prime node's quotient is disconnected, co-disconnected "
                                        "or too small")
-            res = transitive_orientation(q)
-            if not res.orientable:
+            found = _colour_classes(q, budget)
+            if found is None:
+                return None
+            classes, budget = found
+            if classes == 0:  # an implication class meets its reverse
                 return 0
-            if res.num_classes != 1:
+            if classes != 1:
                 raise CertificateError("a prime node's quotient has more than one implication "
                                        "class, so it has a nontrivial module")
             total *= 2
         else:
             raise CertificateError(f"unknown node kind {node.kind!r}")
     return total
+
+
+def _colour_classes(adj: list[set[int]], budget: int) -> tuple[int, int] | None:
+    """The number of colour classes of the graph ``adj`` (0 when it is not a comparability
+    graph) and the budget left, or None once the work passes ``budget``.
+
+    Two passes.  First the ties: around each item ``v``, a breadth-first search in the
+    complement of ``G[N(v)]`` (scanning the unvisited neighbours, skipping those adjacent to the
+    current one) groups the neighbours; the edge to each member of a group is tied to the edge
+    to the group's first member, "both away from ``v``".  Then a union-find over the edges
+    (edge ``{a, b}``, ``a < b``, numbered by the rank of ``a·n + b``) with a parity bit:
+    ``bit(e)`` stands for "e points from its smaller item to its larger", and a tie between
+    ``{v, s}`` and ``{v, x}`` says ``bit xor bit = [v < s] xor [v < x]``."""
+    n = len(adj)
+    centre: list[int] = []
+    first: list[int] = []
+    member: list[int] = []
+    for v in range(n):
+        if len(adj[v]) < 2:
+            continue
+        unvisited = set(adj[v])
+        while unvisited:
+            start = unvisited.pop()
+            todo = [start]
+            while todo and unvisited:
+                y = todo.pop()
+                budget -= len(unvisited) + 1
+                found = unvisited - adj[y]  # neighbours of v not adjacent to y
+                if found:
+                    unvisited -= found
+                    todo += found
+                    centre += [v] * len(found)
+                    first += [start] * len(found)
+                    member += found
+        if budget < 0:
+            return None
+    deg = np.fromiter(map(len, adj), dtype=np.int64, count=n)
+    ends = np.fromiter(chain.from_iterable(adj), dtype=np.int64, count=int(deg.sum()))
+    src = np.repeat(np.arange(n, dtype=np.int64), deg)
+    keys = np.sort((src * n + ends)[src < ends])
+    m = len(keys)
+    budget -= len(member)  # one union each
+    if budget < 0:
+        return None
+    v = np.asarray(centre, dtype=np.int64)
+    s = np.asarray(first, dtype=np.int64)
+    x = np.asarray(member, dtype=np.int64)
+    query = np.concatenate([np.minimum(v, s) * n + np.maximum(v, s),
+                            np.minimum(v, x) * n + np.maximum(v, x)])
+    ids = np.empty(len(query), dtype=np.int64)
+    by_key = np.argsort(query)  # sorted queries: a cache-friendly search
+    ids[by_key] = np.searchsorted(keys, query[by_key])
+    e_s, e_x = ids[:len(v)], ids[len(v):]
+    flip = (v < s) != (v < x)
+    parent = np.arange(m, dtype=np.int64)
+    parity = np.zeros(m, dtype=np.bool_)  # bit(e) xor bit(parent[e]); False at every root
+    if HAVE_NUMBA and len(member) > 1000:
+        joins = run(_join_ties, parent, parity, e_s, e_x, flip)
+    else:
+        joins = _join_ties(parent.tolist(), parity.tolist(), e_s.tolist(), e_x.tolist(),
+                           flip.tolist())
+    return (0 if joins < 0 else m - joins), budget
+
+
+def _join_ties(parent, parity, e_s, e_x, flip) -> int:  # compiled with numba on large inputs
+    """Union-find with parity: tie ``i`` says ``bit(e_s[i]) xor bit(e_x[i]) = flip[i]``.
+    Returns the number of joins made, or -1 when a tie contradicts the earlier ones (an arc and
+    its reverse in one implication class)."""
+    joins = 0
+    for i in range(len(e_s)):
+        e = e_s[i]
+        f = e_x[i]
+        want = flip[i]
+        while parent[e] != e:  # find with path halving, keeping want = bit(e) xor bit(f) ...
+            g = parent[e]
+            parity[e] ^= parity[g]
+            parent[e] = parent[g]
+            want ^= parity[e]
+            e = parent[e]
+        while parent[f] != f:  # ... with e and f replaced by their roots
+            g = parent[f]
+            parity[f] ^= parity[g]
+            parent[f] = parent[g]
+            want ^= parity[f]
+            f = parent[f]
+        if e == f:
+            if want:
+                return -1
+        else:
+            parent[f] = e
+            parity[f] = want
+            joins += 1
+    return joins
 
 
 def _connected(adj: list[set[int]]) -> bool:

@@ -71,26 +71,27 @@ def check_partition(n, parts, what) -> None:
         raise CertificateError(f"{what}: item {seen.index(False)} is not covered")
 
 
+def _check_dual(succ, fig, figure, one, many, check_one, check_many) -> None:
+    """A figure with a witness (``one``) and a partition of every item into as many parts of
+    the other kind (``many``): the witness meets each part at most once, so both are optimal."""
+    v = fig.value
+    if len(fig.witness) != v or len(fig.partition) != v:
+        raise CertificateError(f"{figure} {v}: {one} has {len(fig.witness)} items, partition "
+                               f"{len(fig.partition)} {many}s")
+    check_one(succ, fig.witness, one)
+    check_partition(len(succ), fig.partition, f"{many} partition")
+    for k, part in enumerate(fig.partition):
+        check_many(succ, part, f"{many} {k} of the partition")
+
+
 def check_height(succ, fig) -> None:
-    h = fig.value
-    if len(fig.witness) != h or len(fig.partition) != h:
-        raise CertificateError(f"height {h}: chain has {len(fig.witness)} items, partition "
-                               f"{len(fig.partition)} antichains")
-    check_chain(succ, fig.witness, "longest chain")
-    check_partition(len(succ), fig.partition, "antichain partition")
-    for k, p in enumerate(fig.partition):
-        check_antichain(succ, p, f"antichain {k} of the partition")
+    """A longest chain and a partition into as many antichains (Mirsky 1971)."""
+    _check_dual(succ, fig, "height", "longest chain", "antichain", check_chain, check_antichain)
 
 
 def check_width(succ, fig) -> None:
-    w = fig.value
-    if len(fig.witness) != w or len(fig.partition) != w:
-        raise CertificateError(f"width {w}: antichain has {len(fig.witness)} items, partition "
-                               f"{len(fig.partition)} chains")
-    check_antichain(succ, fig.witness, "largest antichain")
-    check_partition(len(succ), fig.partition, "chain partition")
-    for k, c in enumerate(fig.partition):
-        check_chain(succ, c, f"chain {k} of the partition")
+    """A largest antichain and a partition into as many chains (Dilworth 1950)."""
+    _check_dual(succ, fig, "width", "largest antichain", "chain", check_antichain, check_chain)
 
 
 def check_weighted_chain(succ, weights, fig) -> None:

@@ -13,39 +13,24 @@ message naming the offending items.
 
 from __future__ import annotations
 
-import importlib.util
-import sys
 from itertools import chain
 
 import numpy as np
 
 from satorder.errors import CertificateError
-
-# a compiled inner loop for large orders, written here separately from any engine; numba is
-# imported on first use so that importing satorder stays quick
-_HAVE_NUMBA = importlib.util.find_spec("numba") is not None
-_kernel = None
+from satorder.jit import HAVE_NUMBA, run
 
 
 def _first_intransitive(succ: list[set[int]]):
     """``(a, a, a)`` for an item above itself, ``(a, b, c)`` for ``a < b < c`` without
     ``a < c``, or ``None``.  Successor-set inclusion, compiled when numba is present."""
     n = len(succ)
-    if _HAVE_NUMBA and n > 64:
+    if HAVE_NUMBA and n > 64:
         deg = np.fromiter((len(s) for s in succ), dtype=np.int64, count=n)
         indptr = np.zeros(n + 1, dtype=np.int64)
         np.cumsum(deg, out=indptr[1:])
         indices = np.fromiter(chain.from_iterable(succ), dtype=np.int64, count=int(indptr[-1]))
-        global _kernel
-        if _kernel is None:
-            try:
-                from numba import njit
-            except BaseException:  # an interrupted import must not leave half of numba loaded
-                for key in [k for k in sys.modules if k == "numba" or k.startswith("numba.")]:
-                    del sys.modules[key]
-                raise
-            _kernel = njit(cache=True)(_intransitive_kernel)
-        a, b, c = _kernel(indptr, indices)
+        a, b, c = run(_intransitive_kernel, indptr, indices)
         return None if a < 0 else (int(a), int(b), int(c))
     for a in range(n):
         sa = succ[a]

@@ -1,1 +1,11 @@
-"""Command-line interface: a thin layer over the Python API, one module per command."""
+"""Command-line interface: a thin layer over the Python API, one module per command.
+
+Each command module has ``add_parser(sub)`` and ``run(args) -> int``; :mod:`satorder.cli.main`
+lists them and imports a command's module only when that command runs.
+
+May import: every other part of the package — :mod:`satorder.bench`, :mod:`satorder.generate`,
+:mod:`satorder.render`, :mod:`satorder.explanation`, :mod:`satorder.measure`,
+:mod:`satorder.pipeline`, :mod:`satorder.sat`, :mod:`satorder.graph`, :mod:`satorder.certify`,
+:mod:`satorder.io`, :mod:`satorder.model`, :mod:`satorder.errors`, :mod:`satorder.jit`.
+Nothing in the library imports it.
+"""

@@ -1,4 +1,5 @@
-"""Pieces every command shares: loading problems, atomic output files, JSON printing."""
+"""Pieces the commands share: loading problems, JSON printing, output paths, SVG pictures of an
+order (``solve --draw`` and ``measure --draw``)."""
 
 from __future__ import annotations
 
@@ -9,6 +10,7 @@ import sys
 from rich.console import Console
 
 from satorder.errors import InputError
+from satorder.io.files import atomic_write
 from satorder.io.readers import read_problem
 
 out = Console(highlight=False, soft_wrap=True)
@@ -41,3 +43,29 @@ def check_output_path(path: str | None, *inputs: str) -> None:
     for src in inputs:
         if src and os.path.exists(path) and os.path.samefile(path, src):
             raise UsageError(f"{path}: output would overwrite the input file; choose another name")
+
+
+def check_draw(path, source, n):
+    """Refuse a ``--draw`` target that is not an SVG file name or an order too large to draw."""
+    from satorder.render.order_svg import DRAW_LIMIT
+
+    check_output_path(path, source)
+    if not path.lower().endswith(".svg"):
+        raise InputError(f"{path}: --draw writes SVG; give a file name ending in .svg")
+    if n > DRAW_LIMIT:
+        raise InputError(f"{source}: {n} items are too many to draw legibly "
+                         f"(limit {DRAW_LIMIT}); leave out --draw")
+
+
+def write_pictures(path, source, succ, names, measures=None) -> None:
+    """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``)."""
+    from satorder.render.order_svg import pictures
+
+    check_draw(path, source, len(succ))
+    if measures is None:
+        from satorder.measure.summary import measure
+
+        measures = measure(succ, time_limit=10.0)
+    for name, text in pictures(path, succ, names, measures).items():
+        atomic_write(name, text)
+        err.print(f"wrote {name}", markup=False)

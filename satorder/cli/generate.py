@@ -15,7 +15,6 @@ from rich.table import Table
 
 import satorder.generate as gen
 from satorder.cli.common import UsageError, err, out
-from satorder.generate.suites import _specs
 
 
 def add_parser(sub):
@@ -68,7 +67,7 @@ def run(args) -> int:
         if not args.items:
             raise UsageError("--family needs --items N [N ...]")
         params = dict(_param(t) for t in args.set)
-        specs = _specs(args.family, args.items, args.seeds, args.format, **params)
+        specs = gen.suite_specs(args.family, args.items, args.seeds, args.format, **params)
         if args.format == "edges":
             probe = gen.generate(args.family, min(args.items), args.seeds[0], **params)
             if not probe.is_plain:

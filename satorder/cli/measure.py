@@ -5,8 +5,16 @@ from __future__ import annotations
 
 from rich.table import Table
 
-from satorder.cli.common import check_output_path, dumps, err, load, out, print_json
-from satorder.errors import InputError
+from satorder.cli.common import (
+    check_draw,
+    check_output_path,
+    dumps,
+    err,
+    load,
+    out,
+    print_json,
+    write_pictures,
+)
 from satorder.io.files import atomic_write
 from satorder.measure.summary import measure
 from satorder.model.requirement import UNKNOWN
@@ -38,34 +46,11 @@ def _names(names, items, limit=SHOW):
     return shown + (f", … ({len(items)} in all)" if len(items) > limit else "")
 
 
-def _check_draw(path, source, n):
-    from satorder.render.order_svg import DRAW_LIMIT
-
-    check_output_path(path, source)
-    if not path.lower().endswith(".svg"):
-        raise InputError(f"{path}: --draw writes SVG; give a file name ending in .svg")
-    if n > DRAW_LIMIT:
-        raise InputError(f"{source}: {n} items are too many to draw legibly "
-                         f"(limit {DRAW_LIMIT}); leave out --draw")
-
-
-def write_pictures(path, source, succ, names, measures=None) -> None:
-    """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``)."""
-    from satorder.render.order_svg import pictures
-
-    _check_draw(path, source, len(succ))
-    if measures is None:
-        measures = measure(succ, time_limit=10.0)
-    for name, text in pictures(path, succ, names, measures).items():
-        atomic_write(name, text)
-        err.print(f"wrote {name}", markup=False)
-
-
 def run(args) -> int:
     check_output_path(args.out, args.file)
     problem = load(args.file)
     if args.draw:
-        _check_draw(args.draw, args.file, problem.n)
+        check_draw(args.draw, args.file, problem.n)
     with err.status("finding the order…"):
         ans = solve(problem, engine=args.engine)
     if not ans.feasible:

@@ -10,7 +10,7 @@ from __future__ import annotations
 import sys
 
 from satorder.cli.common import UsageError, dumps, err, load
-from satorder.sat.enumeration import EnumerationEnd, enumerate_orders
+from satorder.pipeline.orders import EnumerationEnd, certified_orders
 
 
 def add_parser(sub):
@@ -32,7 +32,7 @@ def run(args) -> int:
     names = problem.items
     end = EnumerationEnd()
     write = sys.stdout.write
-    for found in enumerate_orders(problem, limit=args.limit, solver=args.solver,
+    for found in certified_orders(problem, limit=args.limit, solver=args.solver,
                                   time_limit=args.time_limit, end=end):
         order = sorted([names[a], names[b]] for a, b in found.pairs)
         write(dumps({"index": found.index, "order": order, "verified": True}))

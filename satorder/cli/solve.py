@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import sys
 
-from satorder.cli.common import check_output_path, load, out
+from satorder.cli.common import check_output_path, load, out, write_pictures
 from satorder.io.files import atomic_write
 from satorder.model.requirement import INFEASIBLE, UNKNOWN
 from satorder.pipeline.solve import ENGINES, solve
@@ -34,8 +34,6 @@ def run(args) -> int:
     if args.out:
         atomic_write(args.out, text)
     if args.draw and ans.feasible:
-        from satorder.cli.measure import write_pictures
-
         write_pictures(args.draw, args.file, ans.succ, problem.items)
     if args.json:
         sys.stdout.write(text)

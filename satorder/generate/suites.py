@@ -13,7 +13,8 @@ from satorder.io.files import atomic_write
 
 
 # --------------------------------------------------------------------------- suites
-def _specs(family: str, sizes, seeds, fmt: str = "json", **params) -> list[dict]:
+def suite_specs(family: str, sizes, seeds, fmt: str = "json", **params) -> list[dict]:
+    """One entry of a suite recipe per (size, seed): the family, its parameters and the format."""
     return [{"family": family, "items": n, "seed": s, "params": dict(params), "format": fmt}
             for n in sizes for s in seeds]
 
@@ -21,65 +22,65 @@ def _specs(family: str, sizes, seeds, fmt: str = "json", **params) -> list[dict]
 RECIPES: dict[str, list[dict]] = {
     # a handful of items: every family, expected counts small enough to check by brute force
     "small": (
-        _specs("complete", [3, 4, 5, 6], [1])
-        + _specs("bipartite", [6, 8, 12], [1, 2], degree=2.0)
-        + _specs("series-parallel", [5, 7, 10], [1, 2, 3])
-        + _specs("order", [8, 12, 20], [1, 2], degree=1.5)
-        + _specs("order", [12, 20], [1], degree=6.0)
-        + _specs("permutation", [8, 12], [1, 2])
-        + _specs("interval-complement", [8, 12, 20], [1], length=0.2)
-        + _specs("gnp", [12, 24], [1, 2], c=1.5)
-        + _specs("gnp", [12, 24], [1, 2], c=3.0)
-        + _specs("planted-hole", [12, 20], [1], length=5, joins=2)
-        + _specs("planted-hole", [20], [1], length=7, joins=2)
-        + _specs("planted-antihole", [14], [1], length=6, joins=1)
-        + _specs("planted-antihole", [15], [1], length=7, joins=1)
-        + _specs("side-constraints", [10, 15], [1, 2])
-        + _specs("side-constraints", [12], [1], conflict="transitivity")
-        + _specs("side-constraints", [12], [1], conflict="cycle", degree=5.0)
-        + _specs("side-constraints", [12], [1], conflict="forcing")
-        + _specs("open-pairs", [10, 15], [1])
-        + _specs("open-pairs", [12], [1], conflict=True)
-        + _specs("preferences", [8, 12], [1], count=5, consistent=True)
-        + _specs("preferences", [8, 12], [1], count=5)
+        suite_specs("complete", [3, 4, 5, 6], [1])
+        + suite_specs("bipartite", [6, 8, 12], [1, 2], degree=2.0)
+        + suite_specs("series-parallel", [5, 7, 10], [1, 2, 3])
+        + suite_specs("order", [8, 12, 20], [1, 2], degree=1.5)
+        + suite_specs("order", [12, 20], [1], degree=6.0)
+        + suite_specs("permutation", [8, 12], [1, 2])
+        + suite_specs("interval-complement", [8, 12, 20], [1], length=0.2)
+        + suite_specs("gnp", [12, 24], [1, 2], c=1.5)
+        + suite_specs("gnp", [12, 24], [1, 2], c=3.0)
+        + suite_specs("planted-hole", [12, 20], [1], length=5, joins=2)
+        + suite_specs("planted-hole", [20], [1], length=7, joins=2)
+        + suite_specs("planted-antihole", [14], [1], length=6, joins=1)
+        + suite_specs("planted-antihole", [15], [1], length=7, joins=1)
+        + suite_specs("side-constraints", [10, 15], [1, 2])
+        + suite_specs("side-constraints", [12], [1], conflict="transitivity")
+        + suite_specs("side-constraints", [12], [1], conflict="cycle", degree=5.0)
+        + suite_specs("side-constraints", [12], [1], conflict="forcing")
+        + suite_specs("open-pairs", [10, 15], [1])
+        + suite_specs("open-pairs", [12], [1], conflict=True)
+        + suite_specs("preferences", [8, 12], [1], count=5, consistent=True)
+        + suite_specs("preferences", [8, 12], [1], count=5)
     ),
     # hundreds to a few thousand items, still small files
     "medium": (
-        _specs("order", [300, 1000], [1], degree=1.5)
-        + _specs("order", [120], [1], degree=8.0)
-        + _specs("permutation", [200], [1], width=15)
-        + _specs("bipartite", [2000], [1], degree=4.0)
-        + _specs("interval-complement", [120], [1], length=0.3)
-        + _specs("series-parallel", [60], [1, 2])
-        + _specs("gnp", [300], [1], c=1.0)
-        + _specs("gnp", [300], [1], c=2.0)
-        + _specs("gnp", [1000], [1], c=0.6)
-        + _specs("planted-hole", [1000], [1], base="bipartite", degree=4.0, length=5, joins=3)
-        + _specs("planted-hole", [400], [1], base="order", degree=1.5, length=9, joins=3)
-        + _specs("side-constraints", [80], [1], fixed=10, forbidden=10)
-        + _specs("side-constraints", [80], [2], fixed=10, forbidden=10, conflict="forcing")
-        + _specs("open-pairs", [40], [1], keep=0.6)
-        + _specs("open-pairs", [40], [2], keep=0.6, conflict=True)
-        + _specs("preferences", [60], [1], count=30, consistent=True)
-        + _specs("preferences", [60], [2], count=30)
+        suite_specs("order", [300, 1000], [1], degree=1.5)
+        + suite_specs("order", [120], [1], degree=8.0)
+        + suite_specs("permutation", [200], [1], width=15)
+        + suite_specs("bipartite", [2000], [1], degree=4.0)
+        + suite_specs("interval-complement", [120], [1], length=0.3)
+        + suite_specs("series-parallel", [60], [1, 2])
+        + suite_specs("gnp", [300], [1], c=1.0)
+        + suite_specs("gnp", [300], [1], c=2.0)
+        + suite_specs("gnp", [1000], [1], c=0.6)
+        + suite_specs("planted-hole", [1000], [1], base="bipartite", degree=4.0, length=5, joins=3)
+        + suite_specs("planted-hole", [400], [1], base="order", degree=1.5, length=9, joins=3)
+        + suite_specs("side-constraints", [80], [1], fixed=10, forbidden=10)
+        + suite_specs("side-constraints", [80], [2], fixed=10, forbidden=10, conflict="forcing")
+        + suite_specs("open-pairs", [40], [1], keep=0.6)
+        + suite_specs("open-pairs", [40], [2], keep=0.6, conflict=True)
+        + suite_specs("preferences", [60], [1], count=30, consistent=True)
+        + suite_specs("preferences", [60], [2], count=30)
     ),
     # generated on demand (tens of MB): performance and scaling work
     "large": (
-        _specs("bipartite", [50_000], [1], "edges", pairs=10_000)
-        + _specs("bipartite", [50_000], [1], "edges", pairs=100_000)
-        + _specs("bipartite", [50_000], [1], "edges", pairs=1_000_000)
-        + _specs("blocks", [50_000], [1], "edges", block_size=100, degree=12.0)
-        + _specs("planted-hole", [50_005], [1], "edges", base="blocks", block_size=100,
+        suite_specs("bipartite", [50_000], [1], "edges", pairs=10_000)
+        + suite_specs("bipartite", [50_000], [1], "edges", pairs=100_000)
+        + suite_specs("bipartite", [50_000], [1], "edges", pairs=1_000_000)
+        + suite_specs("blocks", [50_000], [1], "edges", block_size=100, degree=12.0)
+        + suite_specs("planted-hole", [50_005], [1], "edges", base="blocks", block_size=100,
                  degree=12.0, length=5, joins=3)
-        + _specs("order", [20_000], [1], "edges", degree=1.0)
-        + _specs("permutation", [3000], [1], "edges", width=40)
-        + _specs("open-pairs", [300], [1], keep=0.5)
-        + _specs("side-constraints", [2000], [1], fixed=50, forbidden=50, conflict="forcing")
+        + suite_specs("order", [20_000], [1], "edges", degree=1.0)
+        + suite_specs("permutation", [3000], [1], "edges", width=40)
+        + suite_specs("open-pairs", [300], [1], keep=0.5)
+        + suite_specs("side-constraints", [2000], [1], fixed=50, forbidden=50, conflict="forcing")
     ),
     # random graphs around the density where orientability stops
     "threshold": [
         spec for c in (0.5, 0.75, 0.9, 1.0, 1.1, 1.2, 1.3, 1.5, 2.0)
-        for spec in _specs("gnp", [500], [1, 2, 3, 4, 5], "edges", c=c)
+        for spec in suite_specs("gnp", [500], [1, 2, 3, 4, 5], "edges", c=c)
     ],
 }
 

@@ -5,7 +5,9 @@ two arcs ``a→b`` and ``a'→b'`` of a graph are in the relation Γ when they s
 (``a = a'``) or their head (``b = b'``) and their other ends are *not* adjacent.  In any
 transitive orientation, Γ-related arcs are oriented alike, so the reflexive-transitive closure of
 Γ splits the arcs into *implication classes*.  A graph is a comparability graph exactly when no
-implication class contains an arc together with its reverse (Golumbic, Thm 5.?; Gallai 1967).
+implication class contains an arc together with its reverse (Gallai 1967; Golumbic 1980, ch. 5,
+the theorem behind the TRO algorithm, which we recall from memory as Theorem 5.4: G is a
+comparability graph iff A ∩ A⁻¹ = ∅ for every implication class A).
 
 How it is computed here (near-linear work in practice):
 

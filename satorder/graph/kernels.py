@@ -2,59 +2,25 @@
 
 Each kernel works on a graph in CSR form (``indptr``, ``indices``) and has a pure-Python twin in
 the module that uses it; the tests compare the two on random graphs.  When numba is missing the
-twins are used, slower but with identical results.
+twins are used, slower but with identical results.  Compiling happens on first use
+(:mod:`satorder.jit`).
 """
 
 from __future__ import annotations
 
-import importlib.util
-import sys
-
 import numpy as np
 
-HAVE_NUMBA = importlib.util.find_spec("numba") is not None
-_compiled: dict = {}
+from satorder.jit import HAVE_NUMBA, run
 
-
-def compiled(name: str):
-    """The numba-compiled version of kernel ``name`` (compiled or loaded from the on-disk cache
-    on first use, so that importing satorder stays quick)."""
-    fn = _compiled.get(name)
-    if fn is None:
-        fn = _compiled[name] = import_njit()(cache=True)(globals()["_" + name])
-    return fn
-
-
-def import_njit():
-    """``numba.njit``, imported on first use.  An import cut short (Ctrl-C during the first
-    solve) would leave half of numba in ``sys.modules`` and break every later call, so a failed
-    import removes what it loaded and lets the next call start afresh."""
-    try:
-        from numba import njit
-    except BaseException:
-        for key in [k for k in sys.modules if k == "numba" or k.startswith("numba.")]:
-            del sys.modules[key]
-        raise
-    return njit
-
-
-def _call(name: str, *args):
-    """Run a compiled kernel.  A Ctrl-C that lands while the kernel runs comes back from numba
-    as a ``SystemError`` caused by the ``KeyboardInterrupt``; it is raised as the interrupt."""
-    try:
-        return compiled(name)(*args)
-    except SystemError as exc:
-        if isinstance(exc.__cause__ or exc.__context__, KeyboardInterrupt):
-            raise KeyboardInterrupt from None
-        raise
+__all__ = ["HAVE_NUMBA", "co_component_ties", "csr", "doubled_components"]
 
 
 def co_component_ties(indptr, indices, uindptr, uindices, explicit):
-    return _call("co_component_ties", indptr, indices, uindptr, uindices, explicit)
+    return run(_co_component_ties, indptr, indices, uindptr, uindices, explicit)
 
 
 def doubled_components(m, e1, e2, flip):
-    return _call("doubled_components", m, e1, e2, flip)
+    return run(_doubled_components, m, e1, e2, flip)
 
 
 def _co_component_ties(indptr, indices, uindptr, uindices, explicit):  # pragma: no cover

@@ -68,7 +68,7 @@ def _read_text(path: str) -> str:
 
 # --------------------------------------------------------------------------- JSON
 def parse_json(text: str, source: str = "<json>") -> Problem:
-    """Parse a JSON problem (version 1 contract in DESIGN.md)."""
+    """Parse a JSON problem (format version 1, described in docs/problems.md)."""
     try:
         doc = json.loads(text)
     except json.JSONDecodeError as exc:

@@ -1,7 +1,13 @@
 """Figures of an order: height, width, chain and antichain partitions, weighted chains and
 antichains, the Hasse diagram, a linear extension, and the order dimension with a realizer.
 
-May import: :mod:`satorder.pipeline`, engines, :mod:`satorder.certify`, :mod:`satorder.model`.
+:mod:`~satorder.measure.figures` and :mod:`~satorder.measure.dimension` compute;
+:mod:`~satorder.measure.summary` assembles their results and has them checked.
+
+May import: :mod:`satorder.pipeline`, :mod:`satorder.sat`, :mod:`satorder.graph`,
+:mod:`satorder.certify`, :mod:`satorder.io`, :mod:`satorder.model`, :mod:`satorder.errors`,
+:mod:`satorder.jit`.  The engines inside (figures, dimension) import neither the checkers nor
+the file layer; only the summary calls the checkers.
 """
 
 from satorder.measure.summary import Measures, measure

@@ -23,7 +23,7 @@ algorithm:
   ``W − |f|`` of them, so every antichain weighs at most ``W − |f|``.
 * the **Hasse diagram** (covering pairs) and a **linear extension**.
 
->>> from satorder.measure import height, width
+>>> from satorder.measure.figures import height, width
 >>> succ = [{1, 2}, {2}, set(), set()]      # 0 < 1 < 2, item 3 unrelated
 >>> height(succ).value, width(succ).value
 (3, 2)

@@ -5,5 +5,5 @@ Holds :mod:`~satorder.model.problem` (items and requirements, validated on const
 status enum), :mod:`~satorder.model.answer` (what every engine returns, and its JSON form) and
 :mod:`~satorder.model.order` (small operations on orders stored as successor sets).
 
-May import: :mod:`satorder.errors` only.  Everything else may import the model.
+May import: :mod:`satorder.errors`, :mod:`satorder.jit`.  Everything else may import the model.
 """

@@ -1,6 +1,6 @@
 """The problem model: items and requirements on pairs and arcs.
 
-Semantics (see DESIGN.md in the shared notes):
+Semantics (docs/problems.md says the same for users):
 
 * ``comparable`` pair {a, b}: the answer orders a and b one way or the other;
 * ``incomparable`` pair {a, b}: the answer leaves them unordered;

@@ -17,7 +17,8 @@ Two methods, and the result says which one was used:
   of its two orientations agree with its arcs.  Python integers keep any count exact
   (K_100 has 100! answers).
 * ``"enumeration"`` — problems with open pairs: every answer is produced by the SAT engine with
-  blocking clauses (:mod:`satorder.sat.enumeration`) and certified; with ``limit`` or
+  blocking clauses (:mod:`satorder.sat.enumeration`) and certified
+  (:mod:`satorder.pipeline.orders`); with ``limit`` or
   ``time_limit`` reached first, the count is a lower bound (``exact`` is False).
 
 Preferences rank answers but rule none out, so they do not change the count.
@@ -37,6 +38,9 @@ from dataclasses import dataclass, field
 from math import factorial
 from typing import Any
 
+from satorder.certify.decomposition import check_decomposition
+from satorder.errors import CertificateError, InputError
+from satorder.graph.forcing import transitive_orientation
 from satorder.graph.modular import (
     LEAF,
     PARALLEL,
@@ -48,6 +52,8 @@ from satorder.graph.modular import (
 )
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
+from satorder.pipeline.orders import EnumerationEnd, certified_orders
+from satorder.pipeline.solve import solve
 
 DECOMPOSITION, ENUMERATION = "modular-decomposition", "enumeration"
 MAX_DOWNSETS = 2_000_000  # beyond this many states a series node's arcs are too many to count
@@ -104,8 +110,6 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
         method = ENUMERATION if problem.has_open_pairs else DECOMPOSITION
     if method == DECOMPOSITION:
         if problem.has_open_pairs:
-            from satorder.errors import InputError
-
             raise InputError(f"{problem.source}: has open pairs, which the decomposition "
                              "method cannot count; use the enumeration method (or auto)")
         try:
@@ -123,14 +127,12 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
 
 # ------------------------------------------------------------------------ enumeration
 def _count_by_enumeration(problem, limit, solver, time_limit, on_progress) -> CountResult:
-    from satorder.sat.enumeration import EnumerationEnd, enumerate_orders
-
     end = EnumerationEnd()
-    for found in enumerate_orders(problem, limit=limit, solver=solver, time_limit=time_limit,
+    for found in certified_orders(problem, limit=limit, solver=solver, time_limit=time_limit,
                                   end=end):
         if on_progress is not None:
             on_progress(found.index)
-    # every enumerated order passed certify.check_order; distinct by construction
+    # every enumerated order passed certify.order.check_order; distinct by construction
     return CountResult(problem, end.found, end.complete, ENUMERATION, reason=end.reason,
                        stats={"enumerated": end.found}, verified=True)
 
@@ -152,8 +154,6 @@ def required_arcs(problem: Problem) -> list[tuple[int, int]] | None:
 
 
 def _count_by_decomposition(problem: Problem) -> CountResult:
-    from satorder.graph.forcing import transitive_orientation
-
     adj = problem.adj
     stats: dict[str, Any] = {}
     arcs = required_arcs(problem)
@@ -278,9 +278,6 @@ def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int
     enumerated order certified.  Raises
     :class:`~satorder.errors.CertificateError` on disagreement.
     """
-    from satorder.errors import CertificateError
-    from satorder.pipeline.solve import solve
-
     problem = result.problem
     hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
     ans = solve(hard, solver=solver)
@@ -294,8 +291,6 @@ def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int
             raise CertificateError(f"count is {result.count} but the problem is infeasible")
         checks.append("the solver certified that no answer exists")
     if result.tree is not None:
-        from satorder.certify.decomposition import check_decomposition
-
         implied = check_decomposition(problem.adj, result.tree)
         if implied is not None:
             if not (problem.fixed or problem.forbidden) and implied != result.count:

@@ -3,8 +3,8 @@ encoding of :mod:`satorder.sat.encoding` is measured against, and a solver on to
 
 >>> from satorder.model.problem import Problem
 >>> ans = solve_direct(Problem.from_lists(comparable=[("a", "b"), ("b", "c")]))
->>> ans.status, ans.named_pairs()
-('feasible', [['a', 'b'], ['a', 'c'], ['b', 'c']])
+>>> ans.status, len(ans.named_pairs())      # a and c stay unordered: two ordered pairs
+('feasible', 2)
 """
 
 from __future__ import annotations

@@ -65,16 +65,14 @@ from collections.abc import Iterable, Iterator
 from itertools import islice
 
 import numpy as np
-from scipy.sparse.csgraph import breadth_first_order, connected_components
+from scipy.sparse.csgraph import connected_components
 
 from satorder.graph.forcing import implication_ties, tie_graph
 from satorder.model.problem import Problem
 from satorder.model.requirement import Kind, Requirement
 from satorder.sat.dimacs import to_dimacs
+from satorder.sat.ties import Arc, Key, conflict_core, tie_paths
 from satorder.sat.violations import violations
-
-Arc = tuple[int, int]
-Key = Requirement  # selectors and refutations are keyed by the requirement they stand for
 
 
 class Encoding:
@@ -239,7 +237,7 @@ class Encoding:
         bad = np.flatnonzero(c0 == c1)
         if len(bad):
             self.hard.append([])
-            self.unsat_reason = _conflict_core(graph, int(bad[0]), edges)
+            self.unsat_reason = conflict_core(graph, int(bad[0]), edges)
 
     def requirements_behind(self, clause_ids: Iterable[int]) -> list[Key] | None:
         """Requirements that imply the given clauses of a collapsed encoding (selectors off):
@@ -288,7 +286,7 @@ class Encoding:
             for nodes in by_var.values():
                 targets = set(nodes[1:]) - {nodes[0]}
                 if targets:
-                    steps = _tie_paths(graph, nodes[0], targets, edges)
+                    steps = tie_paths(graph, nodes[0], targets, edges)
                     if steps is None:
                         return None
                     for key in steps:
@@ -459,49 +457,3 @@ class Encoding:
     def to_dimacs(self, assume_selectors: bool = True) -> str:
         """DIMACS CNF text of the clauses so far (:func:`satorder.sat.dimacs.to_dimacs`)."""
         return to_dimacs(self, assume_selectors)
-
-
-def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key] | None:
-    """Requirements along breadth-first paths of Γ steps from arc node ``root`` to each target
-    (None if a target is not reachable, which would be a bug)."""
-    _, pred = breadth_first_order(graph, root, directed=False, return_predecessors=True)
-
-    def arc(node: int) -> Arc:
-        a, b = edges[node // 2]
-        return (a, b) if node % 2 == 0 else (b, a)
-
-    out: dict[Key, None] = {}
-    for t in targets:
-        node = t
-        while node != root:
-            prev = int(pred[node])
-            if prev < 0:
-                return None
-            (a, b), (c, d) = arc(prev), arc(node)
-            x, y = (b, d) if a == c else (a, c)
-            out[Requirement(Kind.COMPARABLE, (a, b))] = None
-            out[Requirement(Kind.COMPARABLE, (c, d))] = None
-            out[Requirement(Kind.INCOMPARABLE, (x, y))] = None
-            node = prev
-    return list(out)
-
-
-def _conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:
-    """Requirements along a shortest chain of Γ steps from edge e's arc to its reverse: the
-    comparable pairs of the chain and the pairs that must stay unordered forcing each step."""
-    _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
-    path = [2 * e + 1]
-    while path[-1] != 2 * e:
-        path.append(int(pred[path[-1]]))
-
-    def arc(node: int) -> Arc:
-        a, b = edges[node // 2]
-        return (a, b) if node % 2 == 0 else (b, a)
-
-    core: list[Key] = []
-    for u, w in zip(path, path[1:]):
-        (a, b), (c, d) = arc(u), arc(w)
-        x, y = (b, d) if a == c else (a, c)
-        core.append(Requirement(Kind.COMPARABLE, (a, b)))
-        core.append(Requirement(Kind.INCOMPARABLE, (x, y)))
-    return list(dict.fromkeys(core))

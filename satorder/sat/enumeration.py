@@ -2,7 +2,7 @@
 
 Method (common practice for all-solutions SAT, e.g. the blocking-clause scheme surveyed by
 Toda & Soh, "Implementing efficient all solutions SAT solvers", ACM JEA 21, 2016): solve; turn
-the model into an order; certify it; add a *blocking clause* saying "at least one pair is
+the model into an order; add a *blocking clause* saying "at least one pair is
 ordered differently"; solve again, until the formula is refuted.
 
 Two details make this count orders rather than models:
@@ -16,7 +16,9 @@ Two details make this count orders rather than models:
   variable could never be ordered), and each model is refined by the session's lazy loop until it
   is a strict partial order before it is reported.
 
-Every order is checked by :func:`satorder.certify.order.check_order` before it is yielded.
+This is an engine: it does not check its own orders.  The front door
+:func:`satorder.pipeline.orders.certified_orders` hands each one to
+:func:`satorder.certify.order.check_order` before passing it on.
 
 >>> from satorder.model.problem import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c")])      # a path: 2 answers
@@ -30,14 +32,13 @@ import time
 from collections.abc import Iterator
 from dataclasses import dataclass
 
-from satorder import certify
 from satorder.model import order as order_ops
 from satorder.model.problem import Problem
 
 
 @dataclass
 class FoundOrder:
-    """One certified answer: ``succ`` (successor sets) and its index in the enumeration."""
+    """One answer: ``succ`` (successor sets) and its index in the enumeration."""
 
     index: int
     succ: list[set[int]]
@@ -61,7 +62,7 @@ class EnumerationEnd:
 def enumerate_orders(problem: Problem, limit: int | None = None, solver: str | None = None,
                      time_limit: float | None = None,
                      end: EnumerationEnd | None = None) -> Iterator[FoundOrder]:
-    """Yield the answers of ``problem`` (hard requirements only), each certified, at most
+    """Yield the answers of ``problem`` (hard requirements only), at most
     ``limit`` of them and none after ``time_limit`` seconds.  Pass an :class:`EnumerationEnd`
     as ``end`` to learn whether the enumeration was complete."""
     from satorder.sat.engine import SatSession
@@ -89,7 +90,6 @@ def enumerate_orders(problem: Problem, limit: int | None = None, solver: str | N
                 end.complete, end.reason = True, "complete"
                 break
             succ = [set(x) for x in s.order()]
-            certify.check_order(problem, succ)
             end.found += 1
             yield FoundOrder(end.found, succ)
             s.add_clause(_blocking_clause(enc, succ))

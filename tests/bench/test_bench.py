@@ -58,6 +58,7 @@ def _task(path, backend, timeout=20.0, expected=None):
 
 
 # --------------------------------------------------------------------------- one run
+@pytest.mark.slow
 def test_forcing_run_row_has_the_contract_fields():
     row = bench.run_isolated(_task(os.path.join(SMALL, PLAIN[1]), "forcing"))
     for key in ("instance", "backend", "status", "seconds", "peak_mb", "verified",
@@ -97,6 +98,7 @@ def test_wrong_answers_fail_their_check():
     assert lie["status"] == "infeasible" and lie["verified"] is False
 
 
+@pytest.mark.slow
 def test_fresh_interpreter_path_stops_at_the_timeout_too():
     # the path Dask workers take (daemonic processes may not fork workers of their own): the
     # worker's own timer ends the run; ordinary rows are compared in the cluster test below
@@ -168,6 +170,7 @@ def test_summary_counts_and_times():
 
 
 # --------------------------------------------------------------------------- the command
+@pytest.mark.slow
 def test_cli_runs_resumes_and_plots(tmp_path, capsys):
     d = _suite(tmp_path, PLAIN[:4] + [SIDE])
     out = tmp_path / "r.jsonl"
@@ -201,6 +204,7 @@ def test_cli_exits_1_on_disagreement_and_2_on_bad_usage(tmp_path, capsys):
     assert main(["bench", str(d), "--out", str(d / PLAIN[0])]) == 2  # would overwrite input
 
 
+@pytest.mark.slow
 def test_interrupt_then_resume_loses_and_repeats_nothing(tmp_path):
     files = ["000-complete-n3-s1.json", "001-complete-n4-s1.json", "002-complete-n5-s1.json",
              "003-complete-n6-s1.json", "004-bipartite-n6-s1.json", "005-bipartite-n6-s2.json",
@@ -236,6 +240,7 @@ def test_interrupt_then_resume_loses_and_repeats_nothing(tmp_path):
     assert sorted(keys) == sorted(os.path.join(str(d), f) for f in files)
 
 
+@pytest.mark.slow
 def test_local_dask_cluster_gives_the_same_rows_and_resumes(tmp_path):
     distributed = pytest.importorskip("distributed")
     d = _suite(tmp_path, PLAIN[3:6])

@@ -10,7 +10,7 @@ import random
 import networkx as nx
 import numpy as np
 import pytest
-from conftest import all_posets
+from order_reference import all_posets
 
 from satorder import Problem, certify
 from satorder.certify.derivation import check_derivation
@@ -349,7 +349,7 @@ def test_repairs_on_a_larger_graph_grow_past_the_first_obstruction():
 
 
 def _orientable(g: nx.Graph) -> bool:
-    from conftest import brute_force_orientable
+    from order_reference import brute_force_orientable
 
     return brute_force_orientable(g)
 

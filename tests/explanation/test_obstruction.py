@@ -8,7 +8,7 @@ import random
 
 import networkx as nx
 import pytest
-from conftest import brute_force_orientable
+from order_reference import brute_force_orientable
 
 from satorder import Problem
 from satorder.explanation.checks import check_obstruction
@@ -117,7 +117,7 @@ def test_random_graphs_up_to_eight_items_obstructions_are_minimal_by_brute_force
 
 
 def test_search_reference_agrees_with_exhaustive_orientation_on_small_graphs():
-    # keeps the backtracking reference honest against the 2^m brute force of conftest
+    # keeps the backtracking reference honest against the 2^m brute force of order_reference
     rnd = random.Random(7)
     for _ in range(150):
         g = nx.gnp_random_graph(rnd.randint(4, 7), 0.5, seed=rnd.randrange(1 << 30))

@@ -9,8 +9,7 @@ import os
 
 import networkx as nx
 import pytest
-from conftest import brute_force_orientable
-from order_reference import count_orientations, reference_feasible
+from order_reference import brute_force_orientable, count_orientations, reference_feasible
 
 from satorder import read_problem
 from satorder.generate import RECIPES, make_suite

@@ -6,7 +6,7 @@ import random
 
 import networkx as nx
 import pytest
-from conftest import all_graphs, brute_force_orientable
+from order_reference import all_graphs, brute_force_orientable
 
 from satorder import Problem, certify
 from satorder.errors import CertificateError
@@ -31,6 +31,7 @@ def test_every_small_graph_matches_brute_force(n):
         assert _check(g) == brute_force_orientable(g), sorted(g.edges())
 
 
+@pytest.mark.slow
 def test_random_graphs_up_to_nine_items_match_brute_force():
     rnd = random.Random(20261201)
     for _ in range(150):

@@ -7,19 +7,13 @@ import itertools
 import random
 
 import pytest
+from order_reference import random_order
 
 from satorder.certify.measure import check_dimension, check_dimension_at_least, check_realizer
 from satorder.errors import CertificateError
 from satorder.measure.dimension import conjugate, dimension, greedy, sat_realizer
 from satorder.measure.dimension import search as dimension_module
 from satorder.model.order import transitive_closure
-
-
-def random_order(n, p, rng):
-    perm = list(range(n))
-    rng.shuffle(perm)
-    arcs = [(perm[i], perm[j]) for i in range(n) for j in range(i + 1, n) if rng.random() < p]
-    return transitive_closure(n, arcs)
 
 
 def linear_extension_masks(succ):
@@ -102,7 +96,7 @@ def test_boolean_lattice_dimension():
 
 def test_permutation_orders_have_dimension_at_most_two():
     # permutation graphs are exactly the comparability graphs of orders of dimension <= 2
-    # (Dushnik & Miller 1941; DESIGN.md outside checks)
+    # (Dushnik & Miller 1941)
     rng = random.Random(2)
     for n in (5, 40, 400):
         perm = list(range(n))

@@ -9,6 +9,7 @@ import random
 
 import networkx as nx
 import pytest
+from order_reference import random_order
 
 from satorder import Problem, solve
 from satorder.certify.measure import (
@@ -29,15 +30,6 @@ from satorder.measure.figures import (
     width,
 )
 from satorder.measure.summary import measure
-from satorder.model.order import transitive_closure
-
-
-def random_order(n, p, rng):
-    """Transitive closure of a random DAG on a shuffled labelling (invented test data)."""
-    perm = list(range(n))
-    rng.shuffle(perm)
-    arcs = [(perm[i], perm[j]) for i in range(n) for j in range(i + 1, n) if rng.random() < p]
-    return transitive_closure(n, arcs)
 
 
 def is_chain(succ, items):
@@ -190,7 +182,7 @@ def test_measure_cli_json_with_weights(tmp_path):
 
 
 def test_measure_cli_infeasible_and_bad_draw_name(tmp_path, capsys):
-    # a 5-cycle is not a comparability graph (DESIGN.md outside checks), so no order exists
+    # a 5-cycle is not a comparability graph (Golumbic 1980, ch. 5: odd holes), so no order exists
     f = tmp_path / "ring.txt"
     f.write_text("".join(f"r{i} r{(i + 1) % 5}\n" for i in range(5)))
     assert main(["measure", str(f), "--json"]) == 0

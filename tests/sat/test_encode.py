@@ -9,9 +9,9 @@ import re
 
 import networkx as nx
 import pytest
+from order_reference import brute_force_feasible, random_problem
 from pysat.formula import CNF
 from pysat.solvers import Solver
-from test_sat import brute_force_feasible, random_problem
 
 from satorder import Problem, certify
 from satorder.cli.main import main

@@ -6,7 +6,7 @@ import itertools
 import json
 import random
 
-from test_count import _POSETS, brute_count, random_problem
+from order_reference import all_posets, brute_count, random_requirements
 
 from satorder import Problem
 from satorder.certify.order import check_order
@@ -18,7 +18,7 @@ from satorder.sat.enumeration import EnumerationEnd, enumerate_orders
 def brute_answers(p: Problem) -> set[frozenset]:
     n = p.n
     out = set()
-    for rel in _POSETS[n]:
+    for rel in all_posets(n):
         succ = [set() for _ in range(n)]
         for a, b in rel:
             succ[a].add(b)
@@ -34,7 +34,7 @@ def test_enumeration_lists_exactly_the_brute_force_answers():
     rng = random.Random(31)
     for trial in range(40):
         n = rng.randint(1, 5)
-        p = random_problem(n, rng, open_pairs=trial % 2 == 0)
+        p = random_requirements(n, rng, open_pairs=trial % 2 == 0)
         end = EnumerationEnd()
         got = [frozenset(o.pairs) for o in enumerate_orders(p, end=end)]
         assert end.complete and end.found == len(got)

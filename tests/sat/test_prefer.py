@@ -7,7 +7,7 @@ import json
 import random
 
 import pytest
-from test_count import _POSETS, brute_count, random_problem
+from order_reference import brute_answers, brute_count, random_requirements
 
 from satorder import Problem, solve
 from satorder.certify.prefer import check_cost
@@ -19,16 +19,7 @@ def brute_optimum(problem: Problem) -> int | None:
     """Least total weight of unmet preferences over every poset meeting the hard requirements
     (None if none does), by trying all labelled posets."""
     best = None
-    n = problem.n
-    comparable = list(problem.comparable_pairs())
-    unordered = [(a, b) for a, b in itertools.combinations(range(n), 2)
-                 if problem.must_be_unordered(a, b)]
-    for rel in _POSETS[n]:
-        if not (all((a, b) in rel or (b, a) in rel for a, b in comparable)
-                and all((a, b) not in rel and (b, a) not in rel for a, b in unordered)
-                and all(arc in rel for arc in problem.fixed)
-                and all(arc not in rel for arc in problem.forbidden)):
-            continue
+    for rel in brute_answers(problem):
         cost = sum(w for a, b, w in problem.prefer if (a, b) not in rel)
         if best is None or cost < best:
             best = cost
@@ -48,7 +39,7 @@ def test_cost_equals_brute_force_optimum(open_pairs):
     checked = 0
     for _ in range(70):
         n = rng.randint(2, 5)
-        p = with_preferences(random_problem(n, rng, open_pairs), rng, rng.randint(1, 6))
+        p = with_preferences(random_requirements(n, rng, open_pairs), rng, rng.randint(1, 6))
         ans = solve(p)
         best = brute_optimum(p)
         if best is None:
@@ -168,7 +159,7 @@ def test_cost_equals_textbook_maxsat_on_eight_items():
     rng = random.Random(8)
     rounds = []
     for _ in range(12):
-        p = with_preferences(random_problem(8, rng, open_pairs=True), rng, 14)
+        p = with_preferences(random_requirements(8, rng, open_pairs=True), rng, 14)
         ans = solve(p)
         ref = direct_maxsat_optimum(p)
         if ref is None:

@@ -7,9 +7,9 @@ import random
 
 import networkx as nx
 import pytest
-from conftest import all_graphs, all_posets
 from hypothesis import given, settings
 from hypothesis import strategies as st
+from order_reference import all_graphs, all_posets, brute_force_feasible, random_problem
 
 from satorder import Problem, certify
 from satorder.errors import InputError
@@ -25,52 +25,6 @@ def test_poset_enumeration_matches_oeis():
     assert [len(all_posets(n)) for n in range(6)] == [1, 1, 3, 19, 219, 4231]
 
 
-def meets(problem: Problem, arcs: frozenset) -> bool:
-    for a, b in problem.comparable_pairs():
-        if (a, b) not in arcs and (b, a) not in arcs:
-            return False
-    for a, b in problem.incomparable_pairs():
-        if (a, b) in arcs or (b, a) in arcs:
-            return False
-    if any(arc not in arcs for arc in problem.fixed):
-        return False
-    return not any(arc in arcs for arc in problem.forbidden)
-
-
-def brute_force_feasible(problem: Problem) -> bool:
-    return any(meets(problem, arcs) for arcs in all_posets(problem.n))
-
-
-def random_problem(rnd: random.Random, n: int, others: bool | None = None) -> Problem:
-    """A random valid problem: each pair comparable / must stay unordered / open, plus a few
-    fixed and forbidden arcs (invalid combinations are skipped, as the reader would refuse)."""
-    names = [f"i{k}" for k in range(n)]
-    b = ProblemBuilder("<random>")
-    for x in names:
-        b.item(x, "items")
-    if others is None:
-        others = rnd.random() < 0.3
-    pc = rnd.uniform(0.2, 0.8)
-    if others:
-        b.incomparable_others()
-    else:
-        b.incomparable_list()
-    for x, y in itertools.combinations(names, 2):
-        r = rnd.random()
-        if r < pc:
-            b.comparable(x, y, "c")
-        elif not others and rnd.random() < 0.7:
-            b.incomparable(x, y, "i")
-    for _ in range(rnd.randint(0, 6)):
-        x, y = rnd.sample(names, 2)
-        try:
-            if rnd.random() < 0.5:
-                b.fixed(x, y, "f")
-            else:
-                b.forbidden(x, y, "x")
-        except InputError:
-            pass
-    return b.build()
 
 
 def _agree(problem: Problem, expected: bool, solver: str | None = None) -> None:
@@ -92,6 +46,7 @@ def test_every_small_graph_sat_agrees_with_forcing(n):
         _agree(p, f.feasible)
 
 
+@pytest.mark.slow
 def test_random_plain_graphs_sat_agrees_with_forcing():
     rnd = random.Random(3)
     for _ in range(400):
