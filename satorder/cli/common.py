@@ -45,27 +45,27 @@ def check_output_path(path: str | None, *inputs: str) -> None:
             raise UsageError(f"{path}: output would overwrite the input file; choose another name")
 
 
-def check_draw(path, source, n):
-    """Refuse a ``--draw`` target that is not an SVG file name or an order too large to draw."""
-    from satorder.render.order_svg import DRAW_LIMIT
-
+def check_draw(path, source):
+    """Refuse a ``--draw`` target that is not an SVG file name."""
     check_output_path(path, source)
     if not path.lower().endswith(".svg"):
         raise InputError(f"{path}: --draw writes SVG; give a file name ending in .svg")
-    if n > DRAW_LIMIT:
-        raise InputError(f"{source}: {n} items are too many to draw legibly "
-                         f"(limit {DRAW_LIMIT}); leave out --draw")
 
 
-def write_pictures(path, source, succ, names, measures=None) -> None:
-    """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``)."""
-    from satorder.render.order_svg import pictures
+def write_pictures(path, source, succ, names, measures=None, weights=None) -> None:
+    """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``);
+    above :data:`~satorder.render.order_svg.SUMMARY_AT` items a summary by level, said in one
+    line."""
+    from satorder.render.order_svg import SUMMARY_AT, pictures
 
-    check_draw(path, source, len(succ))
-    if measures is None:
+    check_draw(path, source)
+    if len(succ) > SUMMARY_AT:
+        err.print(f"{len(succ)} items are too many for a readable Hasse diagram; drawing a "
+                  "summary by level with the heaviest chains instead", markup=False)
+    elif measures is None:
         from satorder.measure.summary import measure
 
         measures = measure(succ, time_limit=10.0)
-    for name, text in pictures(path, succ, names, measures).items():
+    for name, text in pictures(path, succ, names, measures, weights).items():
         atomic_write(name, text)
         err.print(f"wrote {name}", markup=False)

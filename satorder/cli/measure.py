@@ -30,8 +30,8 @@ def add_parser(sub):
     p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
     p.add_argument("--out", metavar="FILE", help="also write the JSON figures to FILE")
     p.add_argument("--draw", metavar="FILE.svg",
-                   help="draw the Hasse diagram to FILE.svg (and, for dimension 2, a dominance "
-                        "drawing to FILE-dominance.svg)")
+                   help="draw the Hasse diagram to FILE.svg (a summary by level above 150 items; "
+                        "for dimension 2 also a dominance drawing to FILE-dominance.svg)")
     p.add_argument("--engine", choices=ENGINES, default="auto",
                    help="engine that finds the order (see 'satorder solve --help')")
     p.add_argument("--sat-limit", type=int, default=40, metavar="N",
@@ -50,7 +50,7 @@ def run(args) -> int:
     check_output_path(args.out, args.file)
     problem = load(args.file)
     if args.draw:
-        check_draw(args.draw, args.file, problem.n)
+        check_draw(args.draw, args.file)
     with err.status("finding the order…"):
         ans = solve(problem, engine=args.engine)
     if not ans.feasible:
@@ -73,7 +73,7 @@ def run(args) -> int:
     if args.out:
         atomic_write(args.out, dumps(doc))
     if args.draw:
-        write_pictures(args.draw, args.file, ans.succ, problem.items, m)
+        write_pictures(args.draw, args.file, ans.succ, problem.items, m, weights)
     if args.json:
         print_json(doc)
     else:

@@ -34,7 +34,7 @@ def run(args) -> int:
     if args.out:
         atomic_write(args.out, text)
     if args.draw and ans.feasible:
-        write_pictures(args.draw, args.file, ans.succ, problem.items)
+        write_pictures(args.draw, args.file, ans.succ, problem.items, weights=problem.weights)
     if args.json:
         sys.stdout.write(text)
         sys.stdout.flush()

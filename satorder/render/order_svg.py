@@ -1,12 +1,15 @@
-"""Pictures of an order as SVG text: a layered Hasse diagram and, for dimension 2, a dominance
-drawing.
+"""Pictures of an order as SVG text: a layered Hasse diagram, a summary by level for large
+orders, and, for dimension 2, a dominance drawing.
 
 * **Layered Hasse diagram** (the covering pairs, lower item below).  Items sit on the level of
-  the longest chain ending at them (the Mirsky levels of :func:`satorder.measure.figures.height`);
-  the
-  order inside each level is improved by barycentre sweeps (Sugiyama, Tagawa & Toda 1981), and
-  a wide level wraps onto several rows of its band.  A longest chain is drawn in orange and a
-  largest antichain outlined in blue.
+  the longest chain ending at them (the Mirsky levels of
+  :func:`satorder.measure.figures.height`); every covering pair that skips levels bends once
+  per level it passes, the order inside each level is chosen to reduce crossings and the
+  positions keep long edges straight (:mod:`satorder.render.layered`, after Sugiyama, Tagawa &
+  Toda 1981).  Segments between bend points lie between the bands of boxes, so no edge passes
+  through a box it does not end at.  A longest chain is drawn thick in vermillion and a largest
+  antichain outlined with blue dashes.
+* **Summary** above :data:`SUMMARY_AT` items (:mod:`satorder.render.summary_svg`).
 * **Dominance drawing** (dimension ≤ 2): item ``x`` is drawn at (position in the first order
   of the realizer, position in the second), so ``x < y`` exactly when ``y`` lies up and to the
   right of ``x`` (Dushnik & Miller 1941; Di Battista, Tamassia & Tollis 1992).
@@ -21,23 +24,34 @@ from __future__ import annotations
 from html import escape
 
 from satorder.model import order as order_ops
+from satorder.render.layered import layered_layout
+from satorder.render.picture import (
+    BLUE,
+    CHAR_W,
+    GREY,
+    VERMILLION,
+    Box,
+    Header,
+    Line,
+    Mark,
+    document,
+    svg_start,
+)
 
-#: more items than this make an unreadable picture; the CLI refuses to draw them
-DRAW_LIMIT = 2000
+__all__ = ["SUMMARY_AT", "dominance_svg", "hasse_svg", "pictures", "svg_start"]
 
-FONT = "DejaVu Sans, Verdana, Arial, sans-serif"
-
-
-def svg_start(width: float, height: float, font_size: int | None = None) -> list[str]:
-    """Opening lines shared by every picture: the ``<svg>`` element and a white background."""
-    size = f' font-size="{font_size}"' if font_size else ""
-    return [f'<svg xmlns="http://www.w3.org/2000/svg" width="{width:.0f}" height="{height:.0f}" '
-            f'viewBox="0 0 {width:.0f} {height:.0f}" font-family="{FONT}"{size}>',
-            '<rect width="100%" height="100%" fill="white"/>']
-CHAR_W = 7.0  # approximate advance of one character at 12 px
+#: above this many items a Hasse diagram cannot be read; a summary by level is drawn instead
+SUMMARY_AT = 150
 MAX_LABEL = 18
-ROW_ITEMS = 28  # items per row before a level wraps
-MAX_WIDTH = 2000  # picture width (px) that a level wraps to stay within
+BOX_H = 22
+LEVEL_GAP = 72  # distance between the centres of two levels
+LEFT = 78  # room for the level labels
+CHAIN_FILL = "#FBE0CC"
+ITEM_FILL = "#F4F6F8"
+
+HASSE_CAPTION = ("Read from bottom to top: each box is an item, and a line runs up from an item "
+                 "to each item that must come directly after it, so an item comes before "
+                 "everything it reaches by climbing lines.")
 
 
 def _label(name: str) -> str:
@@ -50,102 +64,71 @@ def _levels(succ):
     return height(succ).partition
 
 
-def _layer_order(levels, cover):
-    """Barycentre sweeps: each item moves towards the mean slot of its neighbours in the level
-    below (upward sweep) or above (downward sweep)."""
-    up: dict[int, list[int]] = {}
-    down: dict[int, list[int]] = {}
-    for a, b in cover:
-        up.setdefault(a, []).append(b)
-        down.setdefault(b, []).append(a)
-    rows = [sorted(lv) for lv in levels]
-    slot = {}
-
-    def place():
-        for r in rows:
-            width = len(r)
-            for i, x in enumerate(r):
-                slot[x] = (i + 0.5) / width
-
-    place()
-    for sweep in range(8):
-        order = range(1, len(rows)) if sweep % 2 == 0 else range(len(rows) - 2, -1, -1)
-        nbr = down if sweep % 2 == 0 else up
-        for k in order:
-            def key(x, nbr=nbr):
-                ns = nbr.get(x)
-                return sum(slot[y] for y in ns) / len(ns) if ns else slot[x]
-
-            rows[k].sort(key=key)
-            width = len(rows[k])
-            for i, x in enumerate(rows[k]):
-                slot[x] = (i + 0.5) / width
-    return rows
-
-
 def hasse_svg(succ: list[set[int]], names: list[str], chain=None, antichain=None,
-              title: str | None = None) -> str:
+              title: str | None = None, caption: str | None = None) -> str:
     """SVG text of the layered Hasse diagram (see module doc)."""
     n = len(succ)
     cover = order_ops.covering_pairs(succ)
-    rows = _layer_order(_levels(succ), cover) if n else []
+    levels = [sorted(lv) for lv in _levels(succ)] if n else []
     labels = [_label(x) for x in names]
-    box_w = max([CHAR_W * len(s) + 14 for s in labels] + [30])
-    col = box_w + 14
-    box_h, sub_gap, level_gap = 22, 34, 64
-    per_row = max(1, min(ROW_ITEMS, int((MAX_WIDTH - 120) // col),
-                         max((len(r) for r in rows), default=1)))
-    width = max(520, per_row * col + 120)
-    left = 90
-    # vertical layout: level 0 at the bottom
-    bands = [(len(r) + per_row - 1) // per_row for r in rows]
-    total_h = (sum((b - 1) * sub_gap for b in bands) + level_gap * max(0, len(rows) - 1)
-               + 80 + 50 + box_h)
-    pos = {}
-    y_base = total_h - 50
-    level_y = []
-    for k, r in enumerate(rows):
-        level_y.append(y_base)
-        for j, x in enumerate(r):
-            sub, i = divmod(j, per_row)
-            in_row = min(per_row, len(r) - sub * per_row)
-            x0 = left + (width - left - 30 - in_row * col) / 2 + i * col + col / 2
-            pos[x] = (x0, y_base - sub * sub_gap)
-        y_base -= (bands[k] - 1) * sub_gap + level_gap
-    chain_set = set(chain or [])
-    chain_arcs = set(zip(chain or [], (chain or [])[1:]))
-    anti = set(antichain or [])
-    out = svg_start(width, total_h)
+    widths = [max(CHAR_W * len(s) + 14, 30) for s in labels]
+    lay = layered_layout(levels, cover, widths)
+    chain = list(chain or [])
+    chain_arcs = set(zip(chain, chain[1:])) if len(chain) > 1 else set()
+    chain_set = set(chain) if chain_arcs else set()
+    anti = set(antichain or []) if len(antichain or []) > 1 else set()
     heading = title or f"Hasse diagram: {n} items, {len(cover)} covering pairs"
-    out.append(f'<text x="16" y="26" font-size="16" font-weight="bold">{escape(heading)}</text>')
-    out.append('<text x="16" y="46" font-size="12" fill="#444">lower items below; '
-               '<tspan fill="#d9480f" font-weight="bold">orange</tspan>: a longest chain; '
-               '<tspan fill="#1c5fb8" font-weight="bold">blue outline</tspan>: a largest '
-               'antichain</text>')
-    for k, y in enumerate(level_y):
-        top = y - (bands[k] - 1) * sub_gap - box_h / 2 - 8
-        if k % 2 == 1:  # shade every other level so wrapped rows read as one level
-            out.append(f'<rect x="0" y="{top:.1f}" width="{width:.0f}" '
-                       f'height="{y + box_h / 2 + 8 - top:.1f}" fill="#f3f6fa"/>')
-        out.append(f'<text x="12" y="{y + 4:.0f}" font-size="11" fill="#888">level {k + 1}</text>')
+    legend = [Box("item")] + ([Line("covering pair")] if cover else [])
+    if chain_arcs:
+        legend.append(Line(f"a longest chain ({len(chain)} items)", VERMILLION, 3.0))
+    if anti:
+        legend.append(Box(f"a largest antichain ({len(anti)} items)", stroke=BLUE, width=2.4,
+                          dash="5,3"))
+    width = max(560.0, LEFT + lay.width + 30, 32 + CHAR_W * 1.3 * len(heading))
+    head = Header(width, heading, caption or HASSE_CAPTION, legend)
+    top = head.height + 14
+    total_h = top + BOX_H + 16 + LEVEL_GAP * max(0, len(levels) - 1) + 12
+    xoff = LEFT + (width - LEFT - 30 - lay.width) / 2
+
+    def y_of(k):  # level 0 at the bottom
+        return top + BOX_H / 2 + 8 + LEVEL_GAP * (len(levels) - 1 - k)
+
+    out = list(head.parts)
+    for k in range(len(levels)):
+        y = y_of(k)
+        if k % 2 == 1:  # shade every other level
+            out.append(f'<rect class="band" x="0" y="{y - LEVEL_GAP / 2:.1f}" '
+                       f'width="{width:.0f}" height="{LEVEL_GAP:.1f}" fill="#F2F5F9"/>')
+        out.append(f'<text x="12" y="{y + 4:.1f}" font-size="11" fill="#555555">'
+                   f"level {k + 1}</text>")
     for a, b in cover:
-        (x1, y1), (x2, y2) = pos[a], pos[b]
         hot = (a, b) in chain_arcs
-        out.append(f'<line x1="{x1:.1f}" y1="{y1 - box_h / 2:.1f}" x2="{x2:.1f}" '
-                   f'y2="{y2 + box_h / 2:.1f}" stroke="{"#d9480f" if hot else "#7b8794"}" '
-                   f'stroke-width="{2.4 if hot else 1}" stroke-opacity="{1 if hot else 0.6}"/>')
-    for x in range(n):
-        cx, cy = pos[x]
-        fill = "#ffe8d6" if x in chain_set else "#f4f6f8"
-        stroke, sw = ("#1c5fb8", 2.2) if x in anti else ("#52606d", 1)
-        out.append(f'<g><title>{escape(names[x])}</title>'
-                   f'<rect x="{cx - box_w / 2:.1f}" y="{cy - box_h / 2:.1f}" width="{box_w:.0f}" '
-                   f'height="{box_h}" rx="5" fill="{fill}" stroke="{stroke}" '
-                   f'stroke-width="{sw}"/>'
+        pts = [(lay.x[a] + xoff, y_of(lay.layer[a]) - BOX_H / 2)]
+        for d in lay.paths[(a, b)]:
+            yd = y_of(lay.layer[d])
+            pts += [(lay.x[d] + xoff, yd + BOX_H / 2), (lay.x[d] + xoff, yd - BOX_H / 2)]
+        pts.append((lay.x[b] + xoff, y_of(lay.layer[b]) + BOX_H / 2))
+        colour, sw = (VERMILLION, 3.0) if hot else (GREY, 1.2)
+        text = " ".join(f"{px:.1f},{py:.1f}" for px, py in pts)
+        out.append(f'<polyline class="edge" data-from="{escape(names[a])}" '
+                   f'data-to="{escape(names[b])}" points="{text}" fill="none" '
+                   f'stroke="{colour}" stroke-width="{sw}" stroke-linejoin="round"/>')
+    for v in range(n):
+        cx, cy = lay.x[v] + xoff, y_of(lay.layer[v])
+        fill = CHAIN_FILL if v in chain_set else ITEM_FILL
+        stroke, sw, dash = (BLUE, 2.4, ' stroke-dasharray="5,3"') if v in anti else \
+            ("#444444", 1, "")
+        out.append(f'<g class="item"><title>{escape(names[v])}</title>'
+                   f'<rect x="{cx - widths[v] / 2:.1f}" y="{cy - BOX_H / 2:.1f}" '
+                   f'width="{widths[v]:.1f}" height="{BOX_H}" rx="5" fill="{fill}" '
+                   f'stroke="{stroke}" stroke-width="{sw}"{dash}/>'
                    f'<text x="{cx:.1f}" y="{cy + 4:.1f}" font-size="12" text-anchor="middle">'
-                   f'{escape(labels[x])}</text></g>')
-    out.append("</svg>")
-    return "\n".join(out) + "\n"
+                   f"{escape(labels[v])}</text></g>")
+    return document(width, total_h, out)
+
+
+DOMINANCE_CAPTION = ("Each dot is an item placed by its positions in two orderings; an item comes "
+                     "before another exactly when the other lies above and to the right of it.")
 
 
 def dominance_svg(succ: list[set[int]], names: list[str], realizer: list[list[int]],
@@ -159,57 +142,61 @@ def dominance_svg(succ: list[set[int]], names: list[str], realizer: list[list[in
     p1 = {x: i for i, x in enumerate(l1)}
     p2 = {x: i for i, x in enumerate(l2)}
     cell = 22 if n <= 60 else 16
-    margin_l, margin_b, margin_t = 70, 60, 70
     labels = [_label(x) for x in names]
     extra = max([CHAR_W * 0.85 * len(s) for s in labels] + [0]) + 20
-    width = margin_l + n * cell + extra
-    height = margin_t + n * cell + margin_b
-    width = max(width, 480)
+    heading = title or f"Dominance drawing: {n} items"
+    width = max(70 + n * cell + extra, 520.0)
+    cover = order_ops.covering_pairs(succ)
+    legend = [Mark("item", "circle", BLUE, 4)]
+    if cover:
+        legend.append(Line("covering pair"))
+    head = Header(width, heading, DOMINANCE_CAPTION, legend)
+    margin_l, margin_t = 70, head.height + 14
+    height = margin_t + n * cell + 60
 
     def xy(x):
         return margin_l + (p1[x] + 0.5) * cell, margin_t + (n - p2[x] - 0.5) * cell
 
-    out = svg_start(width, height)
-    heading = title or f"Dominance drawing: {n} items"
-    out.append(f'<text x="16" y="26" font-size="16" font-weight="bold">{escape(heading)}</text>')
-    out.append('<text x="16" y="46" font-size="12" fill="#444">x &lt; y exactly when y lies up '
-               'and to the right of x; lines are covering pairs</text>')
+    out = list(head.parts)
     x0, y0, side = margin_l, margin_t, n * cell
-    out.append(f'<rect x="{x0}" y="{y0}" width="{side}" height="{side}" fill="none" '
-               'stroke="#cbd2d9"/>')
+    out.append(f'<rect x="{x0}" y="{y0:.1f}" width="{side}" height="{side}" fill="none" '
+               'stroke="#C8CED6"/>')
     out.append(f'<text x="{x0 + side / 2:.0f}" y="{y0 + side + 36:.0f}" font-size="12" '
-               'text-anchor="middle" fill="#444">position in the first linear order →</text>')
-    out.append(f'<text x="{x0 - 30:.0f}" y="{y0 + side / 2:.0f}" font-size="12" fill="#444" '
+               'text-anchor="middle" fill="#333333">position in the first ordering →</text>')
+    out.append(f'<text x="{x0 - 30:.0f}" y="{y0 + side / 2:.0f}" font-size="12" fill="#333333" '
                f'text-anchor="middle" transform="rotate(-90 {x0 - 30:.0f} {y0 + side / 2:.0f})">'
-               'position in the second linear order →</text>')
-    for a, b in order_ops.covering_pairs(succ):
+               'position in the second ordering →</text>')
+    for a, b in cover:
         (xa, ya), (xb, yb) = xy(a), xy(b)
-        out.append(f'<line x1="{xa:.1f}" y1="{ya:.1f}" x2="{xb:.1f}" y2="{yb:.1f}" '
-                   'stroke="#7b8794" stroke-opacity="0.7"/>')
+        out.append(f'<line class="edge" x1="{xa:.1f}" y1="{ya:.1f}" x2="{xb:.1f}" y2="{yb:.1f}" '
+                   f'stroke="{GREY}" stroke-opacity="0.8"/>')
     fs = 11 if cell >= 20 else 10
     for x in range(n):
         cx, cy = xy(x)
-        out.append(f'<g><title>{escape(names[x])}</title><circle cx="{cx:.1f}" cy="{cy:.1f}" '
-                   f'r="4" fill="#1c5fb8"/><text x="{cx + 6:.1f}" y="{cy - 3:.1f}" '
+        out.append(f'<g class="item"><title>{escape(names[x])}</title><circle cx="{cx:.1f}" '
+                   f'cy="{cy:.1f}" r="4" fill="{BLUE}"/><text x="{cx + 6:.1f}" y="{cy - 3:.1f}" '
                    f'font-size="{fs}">{escape(labels[x])}</text></g>')
-    out.append("</svg>")
-    return "\n".join(out) + "\n"
+    return document(width, height, out)
 
 
-def pictures(path: str, succ: list[set[int]], names: list[str], measures=None) -> dict[str, str]:
-    """SVG texts to write, keyed by file name: the Hasse diagram at ``path`` and, when the
-    order has dimension ≤ 2, the dominance drawing beside it (``NAME-dominance.svg``).
+def pictures(path: str, succ: list[set[int]], names: list[str], measures=None,
+             weights: dict[int, int] | None = None) -> dict[str, str]:
+    """SVG texts to write, keyed by file name: the Hasse diagram at ``path`` (a summary by
+    level above :data:`SUMMARY_AT` items) and, when the order has dimension ≤ 2, the dominance
+    drawing beside it (``NAME-dominance.svg``).
 
     Without ``measures`` the figures needed are computed here (dimension with a short time
-    limit).  Raises ``ValueError`` above :data:`DRAW_LIMIT` items.
+    limit).
     """
     import os
 
     from satorder.measure.figures import height, width
 
     n = len(succ)
-    if n > DRAW_LIMIT:
-        raise ValueError(f"{n} items are too many to draw legibly (limit {DRAW_LIMIT})")
+    if n > SUMMARY_AT:
+        from satorder.render.summary_svg import summary_svg
+
+        return {path: summary_svg(succ, names, weights)}
     if measures is None:
         from satorder.measure.dimension import dimension
 

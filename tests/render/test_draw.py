@@ -25,8 +25,8 @@ def items_drawn(svg, shape):
     root = ET.fromstring(svg)
     out = {}
     for g in root.iter(f"{NS}g"):
-        title = g.find(f"{NS}title").text
-        out[title] = g.find(f"{NS}{shape}").attrib
+        if g.get("class") == "item":
+            out[g.find(f"{NS}title").text] = g.find(f"{NS}{shape}").attrib
     return root, out
 
 
@@ -39,9 +39,10 @@ def test_hasse_svg_draws_every_item_and_cover_with_lower_items_below():
     svg = hasse_svg(succ, names)
     root, boxes = items_drawn(svg, "rect")
     assert set(boxes) == set(names)
-    lines = list(root.iter(f"{NS}line"))
+    edges = {(e.get("data-from"), e.get("data-to")) for e in root.iter(f"{NS}polyline")
+             if e.get("class") == "edge"}
     cover = covering_pairs(succ)
-    assert len(lines) == len(cover)
+    assert edges == {(names[a], names[b]) for a, b in cover}
     for a, b in cover:  # SVG y grows downwards: the lower item has the larger y
         assert float(boxes[names[a]]["y"]) > float(boxes[names[b]]["y"])
 
@@ -63,15 +64,36 @@ def test_dominance_drawing_reproduces_the_order():
                 assert up_right == (b in succ[a])
 
 
-def test_labels_are_escaped_and_wide_levels_wrap():
-    succ = [set() for _ in range(70)]  # an antichain of 70: one level, several rows
+def test_labels_are_escaped_and_a_level_is_one_row():
+    succ = [set() for _ in range(70)]  # an antichain of 70: one level
     names = [f"<crate & {i}>" for i in range(70)]
     files = pictures("pic.svg", succ, names)
     assert set(files) == {"pic.svg", "pic-dominance.svg"}
     root, boxes = items_drawn(files["pic.svg"], "rect")
-    assert len(boxes) == 70
-    assert len({b["y"] for b in boxes.values()}) >= 3  # wrapped onto several rows
-    assert float(root.attrib["width"]) < 4000
+    assert len(boxes) == 70 and "&lt;crate &amp; 3&gt;" in files["pic.svg"]
+    assert len({b["y"] for b in boxes.values()}) == 1
+    xs = sorted(float(b["x"]) for b in boxes.values())
+    assert all(b - a >= float(next(iter(boxes.values()))["width"]) for a, b in zip(xs, xs[1:]))
+
+
+def legend_labels(svg):
+    root = ET.fromstring(svg)
+    return [t.text for g in root.iter(f"{NS}g") if g.get("class") == "legend"
+            for t in g.iter(f"{NS}text")]
+
+
+def test_every_picture_has_title_caption_and_a_legend_of_what_is_drawn():
+    succ = [{1, 2}, {2}, set(), set()]  # chain kiln < loom < quay, weir alone
+    names = ["kiln", "loom", "quay", "weir"]
+    svg = hasse_svg(succ, names, chain=[0, 1, 2], antichain=[2, 3])
+    root = ET.fromstring(svg)
+    assert any(t.get("class") == "title" for t in root.iter(f"{NS}text"))
+    assert any(t.get("class") == "caption" for t in root.iter(f"{NS}text"))
+    assert legend_labels(svg) == ["item", "covering pair", "a longest chain (3 items)",
+                                  "a largest antichain (2 items)"]
+    # nothing ordered: no covering pair and no chain drawn, so the legend names neither
+    lone = hasse_svg([set(), set()], ["kiln", "loom"], chain=[0], antichain=[0, 1])
+    assert legend_labels(lone) == ["item", "a largest antichain (2 items)"]
 
 
 def test_cli_draw_writes_svg_files(tmp_path):
@@ -89,8 +111,10 @@ def test_cli_draw_writes_svg_files(tmp_path):
     assert "ship" in pic2.read_text()
 
 
-def test_cli_refuses_to_draw_huge_orders(tmp_path):
+def test_cli_draws_a_summary_for_huge_orders(tmp_path, capsys):
     f = tmp_path / "many.txt"
     f.write_text("".join(f"u{i} v{i}\n" for i in range(1100)))  # 2200 items
-    assert main(["measure", str(f), "--draw", str(tmp_path / "big.svg")]) == 2
-    assert not (tmp_path / "big.svg").exists()
+    assert main(["measure", str(f), "--draw", str(tmp_path / "big.svg")]) == 0
+    svg = (tmp_path / "big.svg").read_text()
+    assert "Summary of an order of 2200 items in 2 levels" in svg
+    assert "summary" in capsys.readouterr().err
