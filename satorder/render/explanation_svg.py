@@ -1,12 +1,16 @@
 """A picture of an explanation as SVG text: the items involved, the core highlighted.
 
 Items of the core (and of the obstruction) sit on a circle, in the order of a walk along the
-core's comparable pairs, so a cycle-shaped obstruction appears as a polygon.  Drawn:
+core's comparable pairs, so a cycle-shaped obstruction appears as a polygon.  Drawn (colours of
+Okabe & Ito 2002, each kind with its own line width or dash pattern as well):
 
-* every comparable pair among these items (thin grey: the induced subgraph);
-* core pairs that must be ordered (thick blue), that must stay unordered (dashed red),
-  fixed arcs (green arrows), forbidden arcs (dotted purple arrows crossed at the middle);
+* every other comparable pair among these items (thin grey: the induced subgraph);
+* core pairs that must be ordered (thick solid blue), that must stay unordered (dashed
+  vermillion), fixed arcs (long-dashed green arrows), forbidden arcs (dotted purple arrows,
+  bent and crossed out at the middle);
 * obstruction items filled orange.
+
+The legend lists only the kinds that are drawn.
 
 >>> from satorder import Problem
 >>> from satorder.explanation.explain import explain
@@ -22,17 +26,43 @@ import math
 from html import escape
 
 from satorder.model.requirement import INFEASIBLE, Kind, Requirement
-from satorder.render.order_svg import svg_start
+from satorder.render.picture import (
+    BLUE,
+    GREEN,
+    ORANGE,
+    PURPLE,
+    VERMILLION,
+    Header,
+    Line,
+    Mark,
+    document,
+)
 
 MAX_ITEMS = 80
 COLOURS = {
-    "graph": "#b8b8b8",
-    "comparable": "#1f5fbf",
-    "incomparable": "#d0342c",
-    "fixed": "#1e8c3a",
-    "forbidden": "#7b3fa0",
-    "obstruction": "#f5a623",
+    "graph": "#A0A0A0",
+    "comparable": BLUE,
+    "incomparable": VERMILLION,
+    "fixed": GREEN,
+    "forbidden": PURPLE,
+    "obstruction": ORANGE,
 }
+STYLE = {  # (width, dash) per kind: readable without colour
+    "graph": (1.5, ""),
+    "comparable": (4.0, ""),
+    "incomparable": (2.5, "7,5"),
+    "fixed": (3.0, "14,5"),
+    "forbidden": (2.5, "2,4"),
+}
+LEGEND = {
+    "comparable": "core: must be ordered",
+    "incomparable": "core: must stay unordered",
+    "fixed": "core: fixed arc (arrow: before → after)",
+    "forbidden": "core: forbidden arc (bent, crossed out)",
+    "graph": "other comparable pair",
+}
+CAPTION = ("These requirements cannot all hold at once, and dropping any one of them makes the "
+           "rest possible; each line is one requirement between the two items it joins.")
 
 
 def _walk_order(items: list[int], core: list[Requirement]) -> list[int]:
@@ -68,18 +98,33 @@ def explanation_svg(expl, title: str | None = None) -> str:
     order = _walk_order(items, core)
     k = max(len(order), 1)
     radius = max(120.0, 34.0 * k / math.pi)
-    margin_top = 70.0
     width = max(760.0, 2 * (150.0 + radius))
-    cx, cy = width / 2, margin_top + radius
+    core_pairs = {frozenset(r.pair) for r in core}
+    chosen = set(items)
+    context = [(a, b) for a in items for b in p.adj[a]
+               if a < b and b in chosen and frozenset((a, b)) not in core_pairs]
     kinds = {r.kind for r in core}
-    legend_y = cy + radius + 60
-    height = legend_y + 26 * (len(kinds) + 2) + 20
+    legend = [Line(LEGEND[key], COLOURS[key], STYLE[key][0], STYLE[key][1],
+                   "triangle" if key == "fixed" else "cross" if key == "forbidden" else "")
+              for key in ("comparable", "incomparable", "fixed", "forbidden") if key in kinds]
+    if context:
+        legend.append(Line(LEGEND["graph"], COLOURS["graph"], *STYLE["graph"]))
+    if ob:
+        legend.append(Mark(f"obstruction: these {len(ob)} items' comparable pairs admit no "
+                           "order", "circle", COLOURS["obstruction"], 7))
+    heading = title or (
+        f"Why no order exists: a minimal core of {len(core)} requirements"
+        if expl.status == INFEASIBLE else f"Status: {expl.status}"
+    )
+    head = Header(width, heading, CAPTION, legend)
+    cx, cy = width / 2, head.height + 40 + radius
+    height = cy + radius + 50
     pos = {}
     for i, v in enumerate(order):
         ang = -math.pi / 2 + 2 * math.pi * i / k
         pos[v] = (cx + radius * math.cos(ang), cy + radius * math.sin(ang))
 
-    out = svg_start(width, height, font_size=13) + ["<defs>"]
+    out = list(head.parts) + ["<defs>"]
     for key in ("fixed", "forbidden"):
         out.append(
             f'<marker id="arrow-{key}" viewBox="0 0 10 10" refX="10" refY="5" '
@@ -88,38 +133,28 @@ def explanation_svg(expl, title: str | None = None) -> str:
             f'<path d="M0,0 L10,5 L0,10 z" fill="{COLOURS[key]}"/></marker>'
         )
     out.append("</defs>")
-    heading = title or (
-        f"Why no order exists: a minimal core of {len(core)} requirements"
-        if expl.status == INFEASIBLE else f"Status: {expl.status}"
-    )
-    out.append(f'<text x="{width / 2:.0f}" y="32" text-anchor="middle" font-size="17" '
-               f'font-weight="bold">{escape(heading)}</text>')
 
-    def line(a, b, colour, w, dash="", marker="", shorten=0.0):
+    def line(a, b, kind, marker="", shorten=0.0):
         (x1, y1), (x2, y2) = pos[a], pos[b]
         if shorten:
             dx, dy = x2 - x1, y2 - y1
             d = math.hypot(dx, dy) or 1.0
             x1, y1 = x1 + dx * shorten / d, y1 + dy * shorten / d
             x2, y2 = x2 - dx * shorten / d, y2 - dy * shorten / d
+        w, dash = STYLE[kind]
         extra = f' stroke-dasharray="{dash}"' if dash else ""
         extra += f' marker-end="url(#{marker})"' if marker else ""
-        out.append(f'<line x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" y2="{y2:.1f}" '
-                   f'stroke="{colour}" stroke-width="{w}"{extra}/>')
+        out.append(f'<line class="{kind}" x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" '
+                   f'y2="{y2:.1f}" stroke="{COLOURS[kind]}" stroke-width="{w}"{extra}/>')
 
-    core_pairs = {frozenset(r.pair) for r in core}
-    chosen = set(items)
-    for a in items:
-        for b in p.adj[a]:
-            if a < b and b in chosen and frozenset((a, b)) not in core_pairs:
-                line(a, b, COLOURS["graph"], 1.5)
+    for a, b in context:
+        line(a, b, "graph")
     for kind, (a, b) in core:
-        if kind == Kind.COMPARABLE:
-            line(a, b, COLOURS[kind], 4)
-        elif kind == Kind.INCOMPARABLE:
-            line(a, b, COLOURS[kind], 2.5, dash="7,5")
+        kind = kind.value
+        if kind in (Kind.COMPARABLE, Kind.INCOMPARABLE):
+            line(a, b, kind)
         elif kind == Kind.FIXED:
-            line(a, b, COLOURS[kind], 3.5, marker="arrow-fixed", shorten=17)
+            line(a, b, kind, marker="arrow-fixed", shorten=17)
         else:  # a bent arrow, so it stays visible beside a straight line on the same pair
             (x1, y1), (x2, y2) = pos[a], pos[b]
             dx, dy = x2 - x1, y2 - y1
@@ -128,16 +163,18 @@ def explanation_svg(expl, title: str | None = None) -> str:
             x2, y2 = x2 - dx * 16 / d, y2 - dy * 16 / d
             bend = min(45.0, 0.3 * d)
             qx, qy = (x1 + x2) / 2 - dy * bend / d, (y1 + y2) / 2 + dx * bend / d
-            out.append(f'<path d="M{x1:.1f},{y1:.1f} Q{qx:.1f},{qy:.1f} {x2:.1f},{y2:.1f}" '
-                       f'fill="none" stroke="{COLOURS[kind]}" stroke-width="2.5" '
-                       f'stroke-dasharray="3,4" marker-end="url(#arrow-forbidden)"/>')
+            w, dash = STYLE[kind]
+            out.append(f'<path class="{kind}" d="M{x1:.1f},{y1:.1f} Q{qx:.1f},{qy:.1f} '
+                       f'{x2:.1f},{y2:.1f}" fill="none" stroke="{COLOURS[kind]}" '
+                       f'stroke-width="{w}" stroke-dasharray="{dash}" '
+                       'marker-end="url(#arrow-forbidden)"/>')
             mx, my = (x1 + 2 * qx + x2) / 4, (y1 + 2 * qy + y2) / 4
             out.append(f'<text x="{mx:.1f}" y="{my + 8:.1f}" text-anchor="middle" '
                        f'font-size="24" font-weight="bold" fill="{COLOURS[kind]}">✕</text>')
     for v in order:
         x, y = pos[v]
         fill = COLOURS["obstruction"] if v in ob else "white"
-        out.append(f'<circle cx="{x:.1f}" cy="{y:.1f}" r="14" fill="{fill}" stroke="#333" '
+        out.append(f'<circle cx="{x:.1f}" cy="{y:.1f}" r="14" fill="{fill}" stroke="#333333" '
                    'stroke-width="1.5"/>')
         dx, dy = x - cx, y - cy
         d = math.hypot(dx, dy) or 1.0
@@ -145,26 +182,4 @@ def explanation_svg(expl, title: str | None = None) -> str:
         anchor = "start" if dx > 5 else ("end" if dx < -5 else "middle")
         out.append(f'<text x="{lx:.1f}" y="{ly:.1f}" text-anchor="{anchor}">'
                    f"{escape(names[v])}</text>")
-
-    legend = [
-        ("comparable", "core: must be ordered", ""),
-        ("incomparable", "core: must stay unordered", "7,5"),
-        ("fixed", "core: fixed arc", ""),
-        ("forbidden", "core: forbidden arc (bent, crossed out)", "3,4"),
-    ]
-    rows = [row for row in legend if row[0] in kinds] + [("graph", "other comparable pair", "")]
-    x0 = 60.0
-    ly = legend_y
-    for key, text, dash in rows:
-        extra = f' stroke-dasharray="{dash}"' if dash else ""
-        out.append(f'<line x1="{x0:.0f}" y1="{ly:.0f}" x2="{x0 + 34:.0f}" y2="{ly:.0f}" '
-                   f'stroke="{COLOURS[key]}" stroke-width="3"{extra}/>')
-        out.append(f'<text x="{x0 + 46:.0f}" y="{ly + 4:.0f}">{escape(text)}</text>')
-        ly += 26
-    if ob:
-        out.append(f'<circle cx="{x0 + 17:.0f}" cy="{ly:.0f}" r="8" '
-                   f'fill="{COLOURS["obstruction"]}" stroke="#333"/>')
-        out.append(f'<text x="{x0 + 46:.0f}" y="{ly + 4:.0f}">obstruction: these {len(ob)} '
-                   "items induce a subgraph with no transitive orientation</text>")
-    out.append("</svg>")
-    return "\n".join(out) + "\n"
+    return document(width, height, out, font_size=13)
