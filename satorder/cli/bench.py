@@ -14,7 +14,16 @@ from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, T
 from rich.table import Table
 
 import satorder.bench as bench
-from satorder.cli.common import UsageError, check_output_path, err, out
+from satorder.cli.common import (
+    UsageError,
+    add_report_option,
+    check_output_path,
+    check_report_path,
+    command_line,
+    err,
+    out,
+    write_report,
+)
 
 
 def add_parser(sub):
@@ -35,6 +44,7 @@ def add_parser(sub):
                    help="cactus plot and scaling plot of every row of this benchmark")
     p.add_argument("--cluster", metavar="ADDRESS",
                    help="send the runs to a Dask distributed scheduler (e.g. tcp://host:8786)")
+    add_report_option(p)
     return p
 
 
@@ -50,6 +60,7 @@ def run(args) -> int:
     check_output_path(args.out, *[path for _, path, _ in instances])
     if args.plot:
         check_output_path(args.plot, *[path for _, path, _ in instances])
+    check_report_path(args.report, *[path for _, path, _ in instances])
     old = bench.read_rows(args.out)
     todo = bench.plan(instances, backends, ((r["instance"], r["backend"]) for r in old))
     wanted = {(key, b) for key, _, _ in instances for b in backends}
@@ -124,6 +135,12 @@ def _report(args, rows, backends) -> int:
     for msg in unverified[:10]:
         err.print(f"unverified: {msg}", markup=False, style="yellow")
     problems = bench.find_problems(rows)
+    if args.report:
+        from satorder.render.report_pages import bench_report
+
+        write_report(args.report, bench_report(
+            rows, backends, summary, bench.cactus_series(rows), problems, unverified,
+            args.timeout, args.dirs, command_line(args)))
     if problems:
         body = "\n".join(problems[:40])
         if len(problems) > 40:

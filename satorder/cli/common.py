@@ -69,3 +69,37 @@ def write_pictures(path, source, succ, names, measures=None, weights=None) -> No
     for name, text in pictures(path, succ, names, measures, weights).items():
         atomic_write(name, text)
         err.print(f"wrote {name}", markup=False)
+
+
+def add_report_option(parser) -> None:
+    """The shared ``--report FILE.html`` option."""
+    parser.add_argument("--report", metavar="FILE.html",
+                        help="also write one self-contained HTML report (tables, pictures, "
+                             "requirements) to share; opens offline in any browser")
+
+
+def check_report_path(path: str | None, *inputs: str) -> None:
+    """Refuse a report name that is not .html, overwrites an input or lies in no folder."""
+    if path is None:
+        return
+    if not path.lower().endswith((".html", ".htm")):
+        raise UsageError(f"{path}: --report writes HTML; give a file name ending in .html")
+    folder = os.path.dirname(os.path.abspath(path))
+    if not os.path.isdir(folder):
+        raise UsageError(f"{path}: folder {folder} does not exist; create it or choose another")
+    check_output_path(path, *inputs)
+
+
+def command_line(args) -> str:
+    """The command as typed, for the report's header."""
+    import shlex
+
+    return "satorder " + shlex.join(getattr(args, "argv", None) or [args.command])
+
+
+def write_report(path: str | None, report) -> None:
+    """Write a :class:`~satorder.render.report.Report` built by a command (atomically)."""
+    if path is None:
+        return
+    report.write(path)
+    err.print(f"wrote {path}", markup=False)

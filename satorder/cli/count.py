@@ -4,7 +4,19 @@ from __future__ import annotations
 
 from rich.progress import Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
 
-from satorder.cli.common import UsageError, check_output_path, dumps, err, load, out, print_json
+from satorder.cli.common import (
+    UsageError,
+    add_report_option,
+    check_output_path,
+    check_report_path,
+    command_line,
+    dumps,
+    err,
+    load,
+    out,
+    print_json,
+    write_report,
+)
 from satorder.io.files import atomic_write
 from satorder.pipeline.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
 
@@ -55,11 +67,13 @@ def add_parser(sub):
     p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
     p.add_argument("--draw", metavar="FILE.svg",
                    help=f"draw the modular decomposition tree (up to {DRAW_LIMIT} items)")
+    add_report_option(p)
     return p
 
 
 def run(args) -> int:
     check_output_path(args.out, args.file)
+    check_report_path(args.report, args.file)
     if args.limit is not None and args.limit < 1:
         raise UsageError(f"--limit must be at least 1, got {args.limit}")
     problem = load(args.file)
@@ -92,6 +106,10 @@ def run(args) -> int:
         err.print(f"wrote {args.draw}", markup=False)
     if args.out:
         atomic_write(args.out, dumps(doc))
+    if args.report:
+        from satorder.render.report_pages import count_report
+
+        write_report(args.report, count_report(res, command_line(args)))
     if args.json:
         print_json(doc)
         return 0

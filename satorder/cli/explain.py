@@ -3,7 +3,18 @@ step-by-step derivation, an obstruction, and repairs."""
 
 from __future__ import annotations
 
-from satorder.cli.common import UsageError, check_output_path, err, load, out, print_json
+from satorder.cli.common import (
+    UsageError,
+    add_report_option,
+    check_output_path,
+    check_report_path,
+    command_line,
+    err,
+    load,
+    out,
+    print_json,
+    write_report,
+)
 from satorder.explanation.explain import explain
 from satorder.io.files import atomic_write
 from satorder.model.requirement import INFEASIBLE, UNKNOWN
@@ -23,6 +34,7 @@ def add_parser(sub):
     p.add_argument("--draw", metavar="FILE.svg", help="write a picture of the core (SVG)")
     p.add_argument("--time-limit", type=float, default=30.0, metavar="SECONDS",
                    help="time for --smallest and for --repairs each (default 30)")
+    add_report_option(p)
     return p
 
 
@@ -34,6 +46,7 @@ def run(args) -> int:
     if args.draw and not args.draw.lower().endswith(".svg"):
         raise UsageError(f"--draw {args.draw}: the picture is SVG; give a name ending in .svg")
     check_output_path(args.draw, args.file)
+    check_report_path(args.report, args.file)
     problem = load(args.file)
     with err.status("explaining…") as status:
         expl = explain(problem, smallest=args.smallest, repairs=args.repairs,
@@ -49,6 +62,10 @@ def run(args) -> int:
         else:
             atomic_write(args.draw, explanation_svg(expl))
             drawn = True
+    if args.report:
+        from satorder.render.report_pages import explain_report
+
+        write_report(args.report, explain_report(expl, command_line(args)))
     if args.json:
         print_json(expl.to_json())
     else:

@@ -44,7 +44,9 @@ def build_parser() -> argparse.ArgumentParser:
 
 def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
+    argv = sys.argv[1:] if argv is None else list(argv)
     args = parser.parse_args(argv)
+    args.argv = argv  # the command as typed, for reports
     try:
         return int(args.run(args) or 0)
     except InputError as exc:

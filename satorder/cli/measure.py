@@ -6,14 +6,18 @@ from __future__ import annotations
 from rich.table import Table
 
 from satorder.cli.common import (
+    add_report_option,
     check_draw,
     check_output_path,
+    check_report_path,
+    command_line,
     dumps,
     err,
     load,
     out,
     print_json,
     write_pictures,
+    write_report,
 )
 from satorder.io.files import atomic_write
 from satorder.measure.summary import measure
@@ -38,6 +42,7 @@ def add_parser(sub):
                    help="largest part (items) whose dimension ≥ 3 is settled by SAT (default 40)")
     p.add_argument("--time-limit", type=float, default=60.0, metavar="SECONDS",
                    help="time for the SAT dimension search before reporting bounds (default 60)")
+    add_report_option(p)
     return p
 
 
@@ -48,6 +53,7 @@ def _names(names, items, limit=SHOW):
 
 def run(args) -> int:
     check_output_path(args.out, args.file)
+    check_report_path(args.report, args.file)
     problem = load(args.file)
     if args.draw:
         check_draw(args.draw, args.file)
@@ -58,6 +64,11 @@ def run(args) -> int:
                "items": problem.n}
         if args.out:
             atomic_write(args.out, dumps(doc))
+        if args.report:
+            from satorder.render.report_pages import solve_report
+
+            write_report(args.report, solve_report(problem, ans, command_line(args),
+                                                   title="satorder measure"))
         if args.json:
             print_json(doc)
         else:
@@ -74,6 +85,10 @@ def run(args) -> int:
         atomic_write(args.out, dumps(doc))
     if args.draw:
         write_pictures(args.draw, args.file, ans.succ, problem.items, m, weights)
+    if args.report:
+        from satorder.render.report_pages import measure_report
+
+        write_report(args.report, measure_report(problem, ans, m, command_line(args)))
     if args.json:
         print_json(doc)
     else:

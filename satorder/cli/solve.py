@@ -4,7 +4,16 @@ from __future__ import annotations
 
 import sys
 
-from satorder.cli.common import check_output_path, load, out, write_pictures
+from satorder.cli.common import (
+    add_report_option,
+    check_output_path,
+    check_report_path,
+    command_line,
+    load,
+    out,
+    write_pictures,
+    write_report,
+)
 from satorder.io.files import atomic_write
 from satorder.model.requirement import INFEASIBLE, UNKNOWN
 from satorder.pipeline.solve import ENGINES, solve
@@ -23,11 +32,13 @@ def add_parser(sub):
     p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
                    help="give status unknown instead of running longer")
     p.add_argument("--draw", metavar="FILE.svg", help="draw the order's Hasse diagram to FILE.svg")
+    add_report_option(p)
     return p
 
 
 def run(args) -> int:
     check_output_path(args.out, args.file)
+    check_report_path(args.report, args.file)
     problem = load(args.file)
     ans = solve(problem, engine=args.engine, solver=args.solver, time_limit=args.time_limit)
     text = ans.to_json_text() if (args.json or args.out) else None
@@ -35,16 +46,21 @@ def run(args) -> int:
         atomic_write(args.out, text)
     if args.draw and ans.feasible:
         write_pictures(args.draw, args.file, ans.succ, problem.items, weights=problem.weights)
+    if ans.status == INFEASIBLE and (args.report or not args.json):
+        # one-screen summary: a minimal core of the requirements
+        from satorder.explanation.explain import minimal_core_of
+
+        core = minimal_core_of(ans)
+        if core is not None:
+            ans.core = core
+            ans.stats["minimal_core"] = True
+    if args.report:
+        from satorder.render.report_pages import solve_report
+
+        write_report(args.report, solve_report(problem, ans, command_line(args)))
     if args.json:
         sys.stdout.write(text)
         sys.stdout.flush()
     else:
-        if ans.status == INFEASIBLE:  # one-screen summary: a minimal core of the requirements
-            from satorder.explanation.explain import minimal_core_of
-
-            core = minimal_core_of(ans)
-            if core is not None:
-                ans.core = core
-                ans.stats["minimal_core"] = True
         print_answer(ans, out, hint_file=args.file)
     return 3 if ans.status == UNKNOWN else 0

@@ -3,8 +3,8 @@
 For each back end the solve times of its solved runs are sorted; the k-th point is at
 (k, k-th smallest time), so a point (k, t) says that k instances were each solved within t
 seconds and a line further right and lower is better (the usual plot of SAT solver
-competitions: common practice).  Time is on a logarithmic axis.  Each back end has its own colour (Okabe & Ito 2002), dash pattern and
-marker.
+competitions: common practice).  Time is on a logarithmic axis.  Each back end has its own
+colour (Okabe & Ito 2002), dash pattern and marker.
 
 >>> svg = cactus_svg({"forcing": [0.01, 0.02, 0.5], "glucose4": [0.03]})
 >>> svg.count('class="series"'), "forcing (3 solved)" in svg
