@@ -20,7 +20,7 @@ $(TESTSTAMP): pyproject.toml | $(BIN)/python
 	touch $(STAMP) $@
 
 demo: $(STAMP)
-	$(BIN)/satorder demo
+	$(BIN)/satorder demo --pictures demo-output
 
 test: $(TESTSTAMP)
 	$(BIN)/ruff check satorder tests benchmarks

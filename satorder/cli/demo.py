@@ -3,7 +3,9 @@
 Part 1 is the plain problem (pairs that must be sequenced, all others side by side), answered by
 the forcing algorithm.  Part 2 adds hard rules (fixed and forbidden arcs) and leaves a few pairs
 open, answered by the SAT engine.  Part 3 adds one rule too many and shows the core the SAT
-engine reports.  Every answer is checked independently before it is shown.
+engine reports.  Part 4 counts the answers and keeps the weightiest wishes.  Every answer is
+checked independently before it is shown.  With ``--pictures DIR`` the demo also draws one
+picture of each kind and a report into DIR (``make demo`` uses ``demo-output/``).
 """
 
 from __future__ import annotations
@@ -13,7 +15,7 @@ from importlib import resources
 
 from rich.table import Table
 
-from satorder.cli.common import out
+from satorder.cli.common import err, out
 from satorder.io.readers import problem_from_dict
 from satorder.pipeline.solve import solve
 from satorder.render.answer_text import print_answer
@@ -21,8 +23,11 @@ from satorder.sat.direct import direct_encoding
 
 
 def add_parser(sub):
-    return sub.add_parser("demo", help="solve small embedded examples and show the answers",
-                          description=__doc__)
+    p = sub.add_parser("demo", help="solve small embedded examples and show the answers",
+                       description=__doc__)
+    p.add_argument("--pictures", metavar="DIR",
+                   help="also write one picture of each kind and a report into DIR")
+    return p
 
 
 def _load(name: str):
@@ -103,6 +108,15 @@ def run(args) -> int:
     more.adj[names[extra[1]]].add(names[extra[0]])
     print_answer(solve(more), out)
     _part_counts_and_wishes(problem, rules)
+    if args.pictures:
+        from satorder.render.gallery import write_gallery
+
+        out.rule("[bold]pictures[/]")
+        with err.status(f"drawing into {args.pictures}…"):
+            written = write_gallery(args.pictures, problem, rules, more)
+        out.print(f"One picture of each kind and a report, written to {args.pictures}/:")
+        for path in written:
+            out.print(f"  {path}")
     return 0
 
 

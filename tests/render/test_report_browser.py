@@ -120,25 +120,26 @@ def test_report_renders_in_headless_chromium(kind, reports, browser, tmp_path):
 
 
 def test_png_decoder_reads_every_filter_type():
-    # a 3x2 RGB image written with filters Sub, Up (row 2) by hand, checked pixel by pixel
+    # a 3x5 RGB image, row k written with filter k (None, Sub, Up, Average, Paeth: PNG
+    # specification, section 9.2), decoded pixel by pixel
+    import random
     import struct
     import zlib
 
-    pixels = [[(255, 0, 0), (0, 255, 0), (0, 0, 255)], [(10, 20, 30), (40, 50, 60), (70, 80, 90)]]
+    rng = random.Random(2)
+    pixels = [[tuple(rng.randrange(256) for _ in range(3)) for _ in range(3)] for _ in range(5)]
     raw = bytearray()
     prev = bytes(9)
-    for y, (f, row) in enumerate(zip((1, 4), pixels)):
+    for f, row in enumerate(pixels):
         flat = bytes(c for px in row for c in px)
         raw.append(f)
         for i, v in enumerate(flat):
             a = flat[i - 3] if i >= 3 else 0
             b, c = prev[i], (prev[i - 3] if i >= 3 else 0)
-            if f == 1:
-                pred = a
-            else:  # Paeth (PNG specification, section 9.4)
-                p = a + b - c
-                pa, pb, pc = abs(p - a), abs(p - b), abs(p - c)
-                pred = a if pa <= pb and pa <= pc else (b if pb <= pc else c)
+            p = a + b - c
+            pa, pb, pc = abs(p - a), abs(p - b), abs(p - c)
+            paeth = a if pa <= pb and pa <= pc else (b if pb <= pc else c)
+            pred = (0, a, b, (a + b) // 2, paeth)[f]
             raw.append((v - pred) & 255)
         prev = flat
 
@@ -146,8 +147,8 @@ def test_png_decoder_reads_every_filter_type():
         return struct.pack(">I", len(body)) + kind + body + struct.pack(
             ">I", zlib.crc32(kind + body))
 
-    png = (b"\x89PNG\r\n\x1a\n" + chunk(b"IHDR", struct.pack(">IIBBBBB", 3, 2, 8, 2, 0, 0, 0))
+    png = (b"\x89PNG\r\n\x1a\n" + chunk(b"IHDR", struct.pack(">IIBBBBB", 3, 5, 8, 2, 0, 0, 0))
            + chunk(b"IDAT", zlib.compress(bytes(raw))) + chunk(b"IEND", b""))
     w, h, bpp, rows = headless.decode_png(png)
-    assert (w, h, bpp) == (3, 2, 3)
+    assert (w, h, bpp) == (3, 5, 3)
     assert [list(r) for r in rows] == [[c for px in row for c in px] for row in pixels]
