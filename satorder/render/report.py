@@ -25,6 +25,7 @@ from html import escape
 from itertools import islice
 
 from satorder.io.files import atomic_write
+from satorder.model.requirement import FEASIBLE, INFEASIBLE
 
 #: the caution paragraph of the README (section "Caution"), repeated in every report
 CAUTION = ("satorder knows only the requirements you give it. An order it computes is "
@@ -89,7 +90,7 @@ class Report:
                facts: list[tuple[str, object]] = ()) -> Report:
         """The problem's name, its size, the status (a word in a frame, never colour alone)
         and further ``(label, value)`` facts."""
-        kind = status if status in ("feasible", "infeasible") else "other"
+        kind = str(status) if status in (FEASIBLE, INFEASIBLE) else "other"
         self.parts.append(f"<h1>{escape(self.title)}: {escape(str(name))}</h1>")
         rows = [("problem", escape(str(name))), ("size", escape(str(items))),
                 ("status", f'<span class="status {kind}">{escape(str(status))}</span>')]

@@ -8,6 +8,7 @@ a picture needs) and returns the :class:`~satorder.render.report.Report`; the co
 
 from __future__ import annotations
 
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
 from satorder.render.report import Report
 
 SHOW_ITEMS = 40  # item names per table cell before "…"
@@ -78,11 +79,11 @@ def solve_report(problem, answer, command: str | None = None,
             r.table(["before", "after", "weight"],
                     [(names[a], names[b], w) for a, b, w in answer.unmet],
                     caption="Preferences given up", numeric={"weight"})
-    elif answer.status == "infeasible":
+    elif answer.status == INFEASIBLE:
         r.section("Why no order exists")
         if answer.core is not None:
             r.table(["#", "kind", "requirement"],
-                    [(k + 1, c["kind"], requirement_text(c, names))
+                    [(k + 1, c.kind.value, requirement_text(c, names))
                      for k, c in enumerate(answer.core)],
                     caption="These requirements cannot all hold", numeric={"#"})
         if answer.chain is not None:
@@ -149,16 +150,16 @@ def explain_report(expl, command: str | None = None) -> Report:
         facts.append(("core", f"{len(expl.core)} requirements"))
     r = Report("satorder explain", command).header(p.source, _size(p), expl.status, facts)
     core = expl.core or []
-    if expl.status == "feasible":
+    if expl.status == FEASIBLE:
         r.section("Nothing to explain", "An order meeting every requirement exists; satorder "
                   "solve shows one.")
-    elif expl.status != "infeasible":
+    elif expl.status != INFEASIBLE:
         r.section("No verdict", "No verdict within the limits.")
     else:
         r.section("Why no order exists", f"These {len(core)} requirements cannot all hold (on "
                   "their own, every other pair left open); drop any one and the rest can.")
         r.table(["#", "kind", "requirement"],
-                [(k + 1, c["kind"], requirement_text(c, names)) for k, c in enumerate(core)],
+                [(k + 1, c.kind.value, requirement_text(c, names)) for k, c in enumerate(core)],
                 caption="Minimal core", numeric={"#"})
         if len(expl.involved_items()) <= MAX_ITEMS:
             r.picture(explanation_svg(expl))
@@ -194,7 +195,7 @@ def count_report(res, command: str | None = None) -> Report:
     from satorder.pipeline.count import DECOMPOSITION
 
     p = res.problem
-    status = ("feasible" if res.count > 0 else "infeasible" if res.exact else "unknown")
+    status = FEASIBLE if res.count > 0 else INFEASIBLE if res.exact else UNKNOWN
     how = "modular decomposition" if res.method == DECOMPOSITION else "SAT enumeration"
     count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped at the {res.reason})")
     r = Report("satorder count", command).header(

@@ -16,6 +16,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
+from satorder.model.requirement import Kind, Requirement
 from satorder.render.explanation_text import requirement_text
 
 MEANING = {
@@ -48,17 +49,17 @@ def requirement_counts(problem) -> list[tuple[str, int, str]]:
     return [r for r in rows if r[1] or r[0] in ("comparable", "incomparable")]
 
 
-def _state(kind: str, a: int, b: int, succ, names) -> str:
+def _state(kind: Kind, a: int, b: int, succ, names) -> str:
     if succ is None:
         return "—"
     ab, ba = b in succ[a], a in succ[b]
-    if kind == "comparable":
+    if kind == Kind.COMPARABLE:
         if ab or ba:
             return f"holds: {names[a] if ab else names[b]} first"
         return "broken: left unordered"
-    if kind == "incomparable":
+    if kind == Kind.INCOMPARABLE:
         return "broken: ordered" if ab or ba else "holds"
-    if kind == "fixed":
+    if kind == Kind.FIXED:
         return "holds" if ab else "broken"
     return "broken" if ab else "holds"  # forbidden
 
@@ -68,23 +69,23 @@ def requirement_rows(problem, succ=None, core=None, unmet=None) -> Iterator[tupl
     names = problem.items
     in_core = set()
     for r in core or ():
-        kind, pair = r["kind"], tuple(r["pair"])
-        in_core.add((kind, pair))
-        yield kind, requirement_text({"kind": kind, "pair": pair}, names), "in the core"
+        r = Requirement(*r)
+        in_core.add(r)
+        yield r.kind.value, requirement_text(r, names), "in the core"
 
     def rows(kind, pairs):
         for a, b in pairs:
-            if (kind, (a, b)) not in in_core:
-                yield kind, requirement_text({"kind": kind, "pair": (a, b)}, names), \
-                    _state(kind, a, b, succ, names)
+            r = Requirement(kind, (a, b))
+            if r not in in_core:
+                yield kind.value, requirement_text(r, names), _state(kind, a, b, succ, names)
 
     fixed_pairs = {frozenset(a) for a in problem.fixed}
-    yield from rows("fixed", problem.fixed)
-    yield from rows("forbidden", problem.forbidden)
-    yield from rows("comparable", ((a, b) for a, b in problem.comparable_pairs()
-                                   if frozenset((a, b)) not in fixed_pairs))
+    yield from rows(Kind.FIXED, problem.fixed)
+    yield from rows(Kind.FORBIDDEN, problem.forbidden)
+    yield from rows(Kind.COMPARABLE, ((a, b) for a, b in problem.comparable_pairs()
+                                      if frozenset((a, b)) not in fixed_pairs))
     if problem.incomparable is not None:
-        yield from rows("incomparable", problem.incomparable_pairs())
+        yield from rows(Kind.INCOMPARABLE, problem.incomparable_pairs())
     given_up = {(a, b) for a, b, _ in unmet or ()}
     for a, b, w in problem.prefer:
         state = "—" if succ is None else (
