@@ -118,3 +118,32 @@ def test_cli_draws_a_summary_for_huge_orders(tmp_path, capsys):
     svg = (tmp_path / "big.svg").read_text()
     assert "Summary of an order of 2200 items in 2 levels" in svg
     assert "summary" in capsys.readouterr().err
+
+
+def test_explanation_legend_names_only_the_kinds_drawn():
+    from satorder import Problem
+    from satorder.explanation.explain import explain
+    from satorder.render.explanation_svg import explanation_svg
+
+    ring = [("kiln", "loom"), ("loom", "quay"), ("quay", "weir"), ("weir", "dock"),
+            ("dock", "kiln")]
+    expl = explain(Problem.from_lists(comparable=ring))
+    labels = legend_labels(explanation_svg(expl))
+    drawn_kinds = {r.kind for r in expl.core}
+    assert ("core: must be ordered" in labels) == ("comparable" in drawn_kinds)
+    assert ("core: must stay unordered" in labels) == ("incomparable" in drawn_kinds)
+    assert not any("fixed" in t or "forbidden" in t for t in labels)
+    core_pairs = {frozenset(r.pair) for r in expl.core}
+    others = [p for p in ring if frozenset(expl.problem.index[x] for x in p) not in core_pairs]
+    assert ("other comparable pair" in labels) == bool(others)
+    # a comparable pair among the core's items but outside the core is drawn grey, and then,
+    # only then, named in the legend (an explanation built by hand: the picture only reads it)
+    from satorder.explanation.explain import Explanation
+    from satorder.model.requirement import Requirement
+
+    p = Problem.from_lists(comparable=ring + [("kiln", "quay")])
+    ix = p.index
+    core = [Requirement("comparable", (ix[a], ix[b])) for a, b in ring]
+    svg = explanation_svg(Explanation(p, "infeasible", core=core))
+    assert 'class="graph"' in svg
+    assert legend_labels(svg) == ["core: must be ordered", "other comparable pair"]
