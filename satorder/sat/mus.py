@@ -36,7 +36,6 @@ core; larger universes plug in any object with the same ``check`` method.
 
 from __future__ import annotations
 
-import threading
 import time
 from collections.abc import Iterable
 from itertools import permutations
@@ -44,6 +43,9 @@ from itertools import permutations
 from pysat.examples.rc2 import RC2
 from pysat.formula import WCNF
 from pysat.solvers import Solver
+
+from satorder.errors import TimeLimitReached
+from satorder.sat import runner
 
 KINDS = ("comparable", "incomparable", "fixed", "forbidden")
 SOLVER = "glucose42"  # the independent checks in certify.py use a different solver (MiniSat)
@@ -53,10 +55,12 @@ class RequirementOracle:
     """Incremental feasibility of subsets of ``requirements`` (indices into the list).
 
     ``check(active)`` returns ``(True, arcs)`` with the arcs ``(a, b)`` of an order meeting the
-    active requirements, or ``(False, core)`` with a subset of ``active`` that is infeasible.
+    active requirements, or ``(False, core)`` with a subset of ``active`` that is infeasible;
+    it raises :class:`~satorder.errors.TimeLimitReached` once the ``deadline`` (a
+    ``time.monotonic()`` value, or None) has passed.
     """
 
-    def __init__(self, requirements: list[dict]):
+    def __init__(self, requirements: list[dict], deadline: float | None = None):
         self.requirements = list(requirements)
         items = sorted({v for r in self.requirements for v in r["pair"]})
         self.items = items
@@ -83,6 +87,7 @@ class RequirementOracle:
                 raise ValueError(f"unknown requirement kind {kind!r}")
         self.clauses = clauses
         self.solver = Solver(name=SOLVER, bootstrap_with=clauses)
+        self.deadline = deadline
         self.calls = 0
 
     def check(self, active: Iterable[int]):
@@ -92,7 +97,10 @@ class RequirementOracle:
         assumptions = [
             s if k in on else -s for k, s in enumerate(self.selector)
         ]
-        if self.solver.solve(assumptions=assumptions):
+        res = runner.solve(self.solver, assumptions, self.deadline)
+        if res is None:
+            raise TimeLimitReached("the core search reached its time limit")
+        if res:
             model = self.solver.get_model()
             arcs = [ab for ab, v in self.var.items() if model[v - 1] > 0]
             return True, arcs
@@ -129,15 +137,15 @@ class RequirementOracle:
 
 class SessionOracle:
     """The same ``check`` interface over the SAT engine's compact encoding with lazy
-    transitivity (:class:`satorder.sat.engine.SatSession` with selectors), for requirement sets
+    transitivity (:class:`satorder.sat.session.SatSession` with selectors), for requirement sets
     whose
     items are too many for the all-triples :class:`RequirementOracle`.  The requirements are
     posed as a problem of their own: only their pairs are comparable or unordered, all other
     pairs open."""
 
-    def __init__(self, requirements: list[dict], time_limit: float | None = None):
+    def __init__(self, requirements: list[dict], deadline: float | None = None):
         from satorder.model.problem import Problem
-        from satorder.sat.engine import SatSession
+        from satorder.sat.session import SatSession
 
         self.requirements = list(requirements)
         self.items = sorted({v for r in self.requirements for v in r["pair"]})
@@ -164,15 +172,15 @@ class SessionOracle:
                       fixed=fixed, forbidden=forbidden)
         self.session = SatSession(sub, selectors=True)
         self._index = {key: k for k, key in enumerate(self.keys)}
-        self.time_limit = time_limit
+        self.deadline = deadline
         self.calls = 0
 
     def check(self, active: Iterable[int]):
         self.calls += 1
         active = list(active)
-        res = self.session.solve(keep=[self.keys[k] for k in active], time_limit=self.time_limit)
+        res = self.session.solve(keep=[self.keys[k] for k in active], deadline=self.deadline)
         if res is None:
-            raise TimeoutError("the SAT engine reached its time limit")
+            raise TimeLimitReached("the core search reached its time limit")
         if res:
             succ = self.session.order()
             return True, [(self.items[a], self.items[b]) for a, s in enumerate(succ) for b in s]
@@ -224,21 +232,12 @@ def minimal_core(oracle, start: Iterable[int]) -> list[int]:
 
 
 def _compute(rc2: RC2, deadline: float):
-    """``rc2.compute()`` stopped at ``deadline`` (a ``time.monotonic()`` value): the optimal
-    model, or ``None`` when the time ran out (or the hard clauses are unsatisfiable)."""
-    left = deadline - time.monotonic()
-    if left <= 0:
-        return None
-    timer = threading.Timer(left, rc2.interrupt)
-    timer.start()
-    try:
-        model = rc2.compute(expect_interrupt=True)
-    finally:
-        timer.cancel()
-    if rc2.interrupted:
-        rc2.clear_interrupt()
-        return None
-    return model
+    """``rc2.compute()`` stopped at ``deadline`` (a ``time.monotonic()`` value) by the runner:
+    the optimal model, or ``None`` when the time ran out (or the hard clauses are
+    unsatisfiable)."""
+    model, stopped = runner.drive(lambda: rc2.compute(expect_interrupt=True), rc2.interrupt,
+                                  deadline, clear=rc2.clear_interrupt)
+    return None if stopped else model
 
 
 def smallest_core(
