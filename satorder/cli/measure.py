@@ -3,9 +3,11 @@ order found, each with a witness that an independent check has confirmed."""
 
 from __future__ import annotations
 
+import time
+
 from rich.table import Table
 
-from satorder.cli.common import check_output_path, dumps, err, load, out, print_json
+from satorder.cli.common import UsageError, check_output_path, dumps, err, load, out, print_json
 from satorder.errors import InputError
 from satorder.io.files import atomic_write
 from satorder.measure.summary import measure
@@ -28,7 +30,8 @@ def add_parser(sub):
     p.add_argument("--sat-limit", type=int, default=40, metavar="N",
                    help="largest part (items) whose dimension ≥ 3 is settled by SAT (default 40)")
     p.add_argument("--time-limit", type=float, default=60.0, metavar="SECONDS",
-                   help="time for the SAT dimension search before reporting bounds (default 60)")
+                   help="time for finding and measuring the order; the dimension search "
+                        "stops in time to report bounds (default 60)")
     return p
 
 
@@ -48,25 +51,29 @@ def _check_draw(path, source, n):
                          f"(limit {DRAW_LIMIT}); leave out --draw")
 
 
-def write_pictures(path, source, succ, names, measures=None) -> None:
-    """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``)."""
+def write_pictures(path, source, succ, names, measures=None, time_limit=10.0) -> None:
+    """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``);
+    without ``measures`` the order is measured first, within ``time_limit`` seconds."""
     from satorder.render.order_svg import pictures
 
     _check_draw(path, source, len(succ))
     if measures is None:
-        measures = measure(succ, time_limit=10.0)
+        measures = measure(succ, time_limit=time_limit)
     for name, text in pictures(path, succ, names, measures).items():
         atomic_write(name, text)
         err.print(f"wrote {name}", markup=False)
 
 
 def run(args) -> int:
+    if args.time_limit <= 0:
+        raise UsageError(f"--time-limit must be positive, got {args.time_limit:g}")
+    end = time.monotonic() + args.time_limit
     check_output_path(args.out, args.file)
     problem = load(args.file)
     if args.draw:
         _check_draw(args.draw, args.file, problem.n)
     with err.status("finding the order…"):
-        ans = solve(problem, engine=args.engine)
+        ans = solve(problem, engine=args.engine, time_limit=args.time_limit)
     if not ans.feasible:
         doc = {"status": ans.status, "height": None, "width": None, "dimension": None,
                "items": problem.n}
@@ -81,7 +88,7 @@ def run(args) -> int:
     weights = problem.weights
     with err.status("measuring…") as status:
         m = measure(ans.succ, weights=weights, sat_limit=args.sat_limit,
-                    time_limit=args.time_limit,
+                    time_limit=max(0.0, end - time.monotonic()),
                     progress=lambda s: status.update(f"measuring: {s}…"))
     doc = {"status": ans.status, **m.to_json(problem.items)}
     if args.out:

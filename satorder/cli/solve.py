@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import sys
+import time
 
 from satorder.cli.common import check_output_path, load, out
 from satorder.io.files import atomic_write
@@ -26,6 +27,7 @@ def add_parser(sub):
 
 
 def run(args) -> int:
+    end = None if args.time_limit is None else time.monotonic() + args.time_limit
     check_output_path(args.out, args.file)
     problem = load(args.file)
     ans = solve(problem, engine=args.engine, solver=args.solver, time_limit=args.time_limit)
@@ -35,7 +37,8 @@ def run(args) -> int:
     if args.draw and ans.feasible:
         from satorder.cli.measure import write_pictures
 
-        write_pictures(args.draw, args.file, ans.succ, problem.items)
+        left = 10.0 if end is None else min(10.0, max(0.0, end - time.monotonic()))
+        write_pictures(args.draw, args.file, ans.succ, problem.items, time_limit=left)
     if args.json:
         sys.stdout.write(text)
         sys.stdout.flush()
