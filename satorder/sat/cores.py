@@ -25,6 +25,7 @@ import time
 from satorder.model.problem import Problem
 from satorder.sat import runner
 from satorder.sat.encoding import Key
+from satorder.sat.provenance import requirements_behind
 from satorder.sat.session import SatSession
 
 SHRINK_SECONDS = 10.0  # default time spent shrinking a core when no time limit is given
@@ -73,8 +74,9 @@ def find_core(problem: Problem, solver: str | None = None, deadline: float | Non
 def core_via_clauses(session: SatSession, problem: Problem, deadline: float | None):
     """A core from a refuted collapsed encoding, without re-encoding the whole problem with
     selectors: guard each clause by its own literal and ask the solver which clauses it needed;
-    the requirements behind those clauses (:meth:`Encoding.requirements_behind`) form a small
-    infeasible sub-problem, whose core :func:`find_core` then shrinks.  ``(None, stats)`` when
+    the requirements behind those clauses
+    (:func:`~satorder.sat.provenance.requirements_behind`) form a small infeasible
+    sub-problem, whose core :func:`find_core` then shrinks.  ``(None, stats)`` when
     this does not work out (the caller falls back to the full selector encoding)."""
     from pysat.solvers import Solver
 
@@ -88,7 +90,7 @@ def core_via_clauses(session: SatSession, problem: Problem, deadline: float | No
         if res is not False:
             return None, {"clause_core": "not refuted"}
         ids = [lit - base - 1 for lit in t.get_core() or ()]
-    keys = enc.requirements_behind(ids)
+    keys = requirements_behind(enc, ids)
     stats = {"clause_core": len(ids), "candidate": None if keys is None else len(keys),
              "clause_core_seconds": round(time.perf_counter() - t0, 6)}
     if not keys:

@@ -47,9 +47,9 @@ Interface (stable; explain, count, MaxSAT and benchmark code build on it)
   ``has_pair(a, b)``; ``num_classes`` → implication classes merged; ``phase_hints`` → preferred
   literals for a solver's phases (comparable pairs upwards by id, other pairs unordered).
 * ``unsat_reason`` → requirement keys of an implication class holding an arc and its reverse
-  (the CNF then holds the empty clause); ``origin[k]`` → why clause ``hard[k]`` is there;
-  ``requirements_behind(clause_ids)`` → requirements implying those clauses (cores without
-  selectors: see :mod:`satorder.sat`).
+  (the CNF then holds the empty clause); ``origin[k]`` → why clause ``hard[k]`` is there, which
+  :func:`satorder.sat.provenance.requirements_behind` turns back into requirements (cores
+  without selectors).
 * ``to_dimacs()`` → DIMACS CNF text with ``c`` lines naming each variable and selector.
 
 >>> from satorder.model.problem import Problem
@@ -65,15 +65,14 @@ from collections.abc import Iterable, Iterator
 from itertools import islice
 
 import numpy as np
-from scipy.sparse.csgraph import breadth_first_order, connected_components
+from scipy.sparse.csgraph import connected_components
 
 from satorder.graph.forcing import implication_ties, tie_graph
 from satorder.model.problem import Problem
 from satorder.sat.dimacs import to_dimacs
+from satorder.sat.provenance import Arc, Key, conflict_core
 from satorder.sat.violations import violations
 
-Arc = tuple[int, int]
-Key = tuple[str, Arc]
 KINDS = ("comparable", "incomparable", "fixed", "forbidden")
 
 
@@ -100,6 +99,7 @@ class Encoding:
         # requirements that cannot hold together, when collapsing finds an implication class
         # holding an arc and its reverse (the encoding then has an empty clause)
         self.unsat_reason: list[Key] | None = None
+        self.ties = None  # Γ tie graph of collapsed classes, to explain refutations
         self.num_classes = 0
         # preferred phases, in creation order: comparable pairs upwards by id, others unordered
         self.phase_hints: list[int] = []
@@ -224,7 +224,7 @@ class Encoding:
         # node 2e: edge e as lo<hi; node 2e+1: hi<lo
         graph = tie_graph(m, src, dst, fl)
         _, comp = connected_components(graph, directed=False)
-        self._ties = (graph, edges, eid)  # kept to explain refutations (requirements_behind)
+        self.ties = (graph, edges, eid)
         c0, c1 = comp[0::2], comp[1::2]
         # one variable per class pair {c, reverse c}: numbered by the smaller component id
         key = np.minimum(c0, c1)
@@ -241,62 +241,7 @@ class Encoding:
         bad = np.flatnonzero(c0 == c1)
         if len(bad):
             self.hard.append([])
-            self.unsat_reason = _conflict_core(graph, int(bad[0]), edges)
-
-    def requirements_behind(self, clause_ids: Iterable[int]) -> list[Key] | None:
-        """Requirements that imply the given clauses of a collapsed encoding (selectors off):
-        if those clauses are unsatisfiable, so are these requirements on their own.
-
-        A transitivity clause needs the pairs it names to be comparable (when they are) and its
-        missing closing pair to stay unordered; a unit needs its fixed or forbidden arc; and
-        arcs sharing one class variable need the Γ steps that tie them (comparable pairs and
-        the unordered pairs forcing each step, Golumbic 1980, ch. 5).  ``None`` when a clause
-        has no recorded origin (added by a caller).
-        """
-        p = self.problem
-        n = self.n
-        out: dict[Key, None] = {}
-        used: list[Arc] = []
-
-        def pair_req(a: int, b: int) -> None:
-            key = (min(a, b), max(a, b))
-            if b in p.adj[a]:
-                out[("comparable", key)] = None
-                used.append((a, b))
-            elif p.must_be_unordered(a, b):
-                out[("incomparable", key)] = None
-
-        for k in clause_ids:
-            origin = self.origin.get(k)
-            if origin is None:
-                return None
-            if origin[0] == "triple":
-                a, b, c = origin[1]
-                pair_req(a, b)
-                pair_req(b, c)
-                pair_req(a, c)
-            elif origin[0] in ("fixed", "forbidden"):
-                out[(origin[0], origin[1])] = None
-                pair_req(*origin[1])
-        if getattr(self, "_ties", None) is not None:
-            graph, edges, eid = self._ties
-            by_var: dict[int, list[int]] = {}
-            for a, b in used:
-                lit = self.lt(a, b)
-                e = eid[min(a, b) * n + max(a, b)]
-                node = 2 * e if a < b else 2 * e + 1
-                if lit < 0:
-                    node ^= 1  # the reverse arc carries the positive literal
-                by_var.setdefault(abs(lit), []).append(node)
-            for nodes in by_var.values():
-                targets = set(nodes[1:]) - {nodes[0]}
-                if targets:
-                    steps = _tie_paths(graph, nodes[0], targets, edges)
-                    if steps is None:
-                        return None
-                    for key in steps:
-                        out[key] = None
-        return list(out)
+            self.unsat_reason = conflict_core(graph, int(bad[0]), edges)
 
     # ------------------------------------------------------------------ transitivity
     def transitivity_clause(self, a: int, b: int, c: int) -> list[int] | None:
@@ -462,49 +407,3 @@ class Encoding:
     def to_dimacs(self, assume_selectors: bool = True) -> str:
         """DIMACS CNF text of the clauses so far (:func:`satorder.sat.dimacs.to_dimacs`)."""
         return to_dimacs(self, assume_selectors)
-
-
-def _tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key] | None:
-    """Requirements along breadth-first paths of Γ steps from arc node ``root`` to each target
-    (None if a target is not reachable, which would be a bug)."""
-    _, pred = breadth_first_order(graph, root, directed=False, return_predecessors=True)
-
-    def arc(node: int) -> Arc:
-        a, b = edges[node // 2]
-        return (a, b) if node % 2 == 0 else (b, a)
-
-    out: dict[Key, None] = {}
-    for t in targets:
-        node = t
-        while node != root:
-            prev = int(pred[node])
-            if prev < 0:
-                return None
-            (a, b), (c, d) = arc(prev), arc(node)
-            x, y = (b, d) if a == c else (a, c)
-            out[("comparable", (min(a, b), max(a, b)))] = None
-            out[("comparable", (min(c, d), max(c, d)))] = None
-            out[("incomparable", (min(x, y), max(x, y)))] = None
-            node = prev
-    return list(out)
-
-
-def _conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:
-    """Requirements along a shortest chain of Γ steps from edge e's arc to its reverse: the
-    comparable pairs of the chain and the pairs that must stay unordered forcing each step."""
-    _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
-    path = [2 * e + 1]
-    while path[-1] != 2 * e:
-        path.append(int(pred[path[-1]]))
-
-    def arc(node: int) -> Arc:
-        a, b = edges[node // 2]
-        return (a, b) if node % 2 == 0 else (b, a)
-
-    core: list[Key] = []
-    for u, w in zip(path, path[1:]):
-        (a, b), (c, d) = arc(u), arc(w)
-        x, y = (b, d) if a == c else (a, c)
-        core.append(("comparable", (min(a, b), max(a, b))))
-        core.append(("incomparable", (min(x, y), max(x, y))))
-    return list(dict.fromkeys(core))
