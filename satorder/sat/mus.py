@@ -249,7 +249,7 @@ def smallest_core(
     first (the caller then keeps its minimal core and says so).
     """
     universe = list(universe)
-    deadline = time.monotonic() + time_limit
+    deadline = runner.deadline_after(time_limit)
     # minimum hitting sets of the correction sets found so far, by MaxSAT: one variable per
     # member of the universe, each unit soft clause "leave it out" of weight 1
     hvar = {k: i + 1 for i, k in enumerate(universe)}
@@ -300,7 +300,7 @@ def correction_sets(oracle, universe: Iterable[int], limit: int, time_limit: flo
     for k in universe:
         wcnf.append([oracle.selector[k]], weight=1)
     found: list[list[int]] = []
-    deadline = time.monotonic() + time_limit
+    deadline = runner.deadline_after(time_limit)
     with RC2(wcnf, solver=SOLVER) as rc2:
         while len(found) < limit and time.monotonic() < deadline:
             model = _compute(rc2, deadline)

@@ -148,7 +148,7 @@ def _greedy(problem, solver, t0, deadline, time_limit, stats):
     is found in time.  Uses at most a third of the time limit."""
     from satorder.sat.session import SatSession
 
-    stop = min(deadline, time.monotonic() + time_limit / 3)
+    stop = runner.deadline_after(time_limit / 3, deadline)
     with SatSession(problem, solver=solver) as s:
         res = s.solve(deadline=deadline)
         stats["greedy_solves"] += 1
