@@ -208,3 +208,16 @@ def test_ctrl_c_inside_a_checkers_own_solver_call_exits_130(monkeypatch, capsys)
     monkeypatch.setattr(cli_solve, "run", interrupted)
     assert cli_main.main(["solve", "unused.json"]) == 130
     assert capsys.readouterr().err.strip() == "satorder: interrupted"
+
+
+def test_runner_works_in_a_forked_child():
+    # calls run in a worker thread kept per calling thread; a forked child keeps only the
+    # forking thread, so it must start a worker of its own (the benchmark forks its runs)
+    with Solver(name="cadical195", bootstrap_with=[[1, 2], [-1]]) as s:
+        assert runner.solve(s) is True
+        pid = os.fork()
+        if pid == 0:  # the child: exit status 0 only if the runner answered correctly
+            ok = runner.solve(s, [-2]) is False and runner.solve(s) is True
+            os._exit(0 if ok else 1)
+        _, status = os.waitpid(pid, 0)
+        assert os.waitstatus_to_exitcode(status) == 0
