@@ -231,15 +231,6 @@ def minimal_core(oracle, start: Iterable[int]) -> list[int]:
             current = core  # contains every needed member: each lies in every core of `current`
 
 
-def _compute(rc2: RC2, deadline: float):
-    """``rc2.compute()`` stopped at ``deadline`` (a ``time.monotonic()`` value) by the runner:
-    the optimal model, or ``None`` when the time ran out (or the hard clauses are
-    unsatisfiable)."""
-    model, stopped = runner.drive(lambda: rc2.compute(expect_interrupt=True), rc2.interrupt,
-                                  deadline, clear=rc2.clear_interrupt)
-    return None if stopped else model
-
-
 def smallest_core(
     oracle, universe: Iterable[int], time_limit: float = 10.0
 ) -> tuple[list[int] | None, bool]:
@@ -258,8 +249,8 @@ def smallest_core(
         wcnf.append([-hvar[k]], weight=1)
     with RC2(wcnf, solver=SOLVER) as hitter:
         while time.monotonic() < deadline:
-            model = _compute(hitter, deadline)
-            if model is None:
+            model, stopped = runner.maxsat(hitter, deadline)
+            if stopped or model is None:
                 return None, False
             chosen = {v for v in model if v > 0}
             candidate = sorted(k for k in universe if hvar[k] in chosen)
@@ -303,8 +294,8 @@ def correction_sets(oracle, universe: Iterable[int], limit: int, time_limit: flo
     deadline = runner.deadline_after(time_limit)
     with RC2(wcnf, solver=SOLVER) as rc2:
         while len(found) < limit and time.monotonic() < deadline:
-            model = _compute(rc2, deadline)
-            if model is None:
+            model, stopped = runner.maxsat(rc2, deadline)
+            if stopped or model is None:
                 break
             pos = set(v for v in model if v > 0)
             mcs = [k for k in universe if oracle.selector[k] not in pos]

@@ -132,14 +132,12 @@ class _Rc2Session:
 
     def compute(self, deadline: float | None):
         """``(model or None, cost of the cores relaxed so far, finished)``; RC2 runs under the
-        runner (:func:`satorder.sat.runner.drive`), which interrupts its oracle at the
+        runner (:func:`satorder.sat.runner.maxsat`), which interrupts its oracle at the
         ``deadline`` or on Ctrl-C."""
-        rc2 = self.rc2
-        model, stopped = runner.drive(lambda: rc2.compute(expect_interrupt=True), rc2.interrupt,
-                                      deadline, clear=rc2.clear_interrupt)
+        model, stopped = runner.maxsat(self.rc2, deadline)
         if stopped:
-            return None, rc2.cost, False
-        return model, rc2.cost, True
+            return None, self.rc2.cost, False
+        return model, self.rc2.cost, True
 
 
 def _greedy(problem, solver, t0, deadline, time_limit, stats):

@@ -2,9 +2,9 @@
 back ends that cannot be interrupted.
 
 Every SAT call in the package goes through :func:`solve` (one call of a solver) or
-:func:`drive` (a callable that drives a solver, such as RC2's ``compute``).  Both take a
-``deadline``, a :func:`time.monotonic` value (:func:`deadline_after` turns a time limit in
-seconds into one), and both return ``None`` as the answer when the deadline passes first.
+:func:`drive` (a callable that drives a solver; :func:`maxsat` runs RC2's ``compute`` so).
+Each takes a ``deadline``, a :func:`time.monotonic` value (:func:`deadline_after` turns a time
+limit in seconds into one), and gives no answer (``None``) when the deadline passes first.
 
 How a call is stopped depends on what python-sat offers for the back end (:func:`family`):
 
@@ -155,6 +155,17 @@ def solve(solver, assumptions: Iterable[int] = (), deadline: float | None = None
         raise _cannot_stop(type(getattr(solver, "solver", solver)).__name__.lower())
     result, _ = drive(lambda: solver.solve(assumptions=assume), lambda: None)
     return result
+
+
+def maxsat(rc2, deadline: float | None = None):
+    """``rc2.compute()`` of a python-sat RC2 MaxSAT solver (which runs its own SAT oracle) under
+    the same rules: its oracle is interrupted at the ``deadline`` or on Ctrl-C, the interrupt
+    cleared afterwards.  Returns ``(model, stopped)``; a stopped call's model (and RC2's
+    ``cost`` so far, a lower bound) is all there is.  The oracle must be interruptible."""
+    if family(rc2.oracle) != "interrupt":
+        raise ValueError("RC2 can be stopped only with an interruptible oracle, e.g. glucose4")
+    return drive(lambda: rc2.compute(expect_interrupt=True), rc2.interrupt, deadline,
+                 clear=rc2.clear_interrupt)
 
 
 def is_keyboard_error(exc: BaseException) -> bool:

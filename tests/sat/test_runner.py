@@ -144,12 +144,11 @@ def _hard_maxsat():
     return RC2(wcnf, solver="glucose4"), g
 
 
-def test_rc2_is_stopped_at_the_deadline_by_drive():
+def test_rc2_is_stopped_at_the_deadline():
     rc2, g = _hard_maxsat()
     with rc2:
         t0 = time.monotonic()
-        model, stopped = runner.drive(lambda: rc2.compute(expect_interrupt=True), rc2.interrupt,
-                                      runner.deadline_after(1.0), clear=rc2.clear_interrupt)
+        model, stopped = runner.maxsat(rc2, runner.deadline_after(1.0))
         assert time.monotonic() - t0 < SANITY
         assert stopped and rc2.interrupted
         # the interrupt was cleared: the oracle answers an easy question again
@@ -176,10 +175,12 @@ def test_ctrl_c_stops_rc2_and_raises_keyboard_interrupt():
         timer = _sigint_soon()
         try:
             with pytest.raises(KeyboardInterrupt):
-                runner.drive(lambda: rc2.compute(expect_interrupt=True), rc2.interrupt,
-                             runner.deadline_after(SANITY), clear=rc2.clear_interrupt)
+                runner.maxsat(rc2, runner.deadline_after(SANITY))
         finally:
             timer.cancel()
+    with RC2(WCNF(), solver="cadical195") as rc2:  # an oracle the runner cannot interrupt
+        with pytest.raises(ValueError, match="interruptible"):
+            runner.maxsat(rc2)
 
 
 def test_deadline_after_and_seconds_left():
