@@ -170,7 +170,7 @@ _ENCODINGS = (
     "from pysat.solvers import Solver\n"
     "from satorder import problem_from_dict\n"
     "from satorder.sat.direct import direct_encoding\n"
-    "from satorder.sat.engine import SatSession\n"
+    "from satorder.sat.session import SatSession\n"
     "from satorder import certify\n"
     "doc = json.load(open(sys.argv[1])); solver = sys.argv[2]; which = sys.argv[3]\n"
     "p = problem_from_dict(doc, sys.argv[1])\n"

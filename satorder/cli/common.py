@@ -52,10 +52,11 @@ def check_draw(path, source):
         raise InputError(f"{path}: --draw writes SVG; give a file name ending in .svg")
 
 
-def write_pictures(path, source, succ, names, measures=None, weights=None) -> None:
+def write_pictures(path, source, succ, names, measures=None, weights=None,
+                   time_limit: float = 10.0) -> None:
     """Write the SVG pictures of an order (used by ``solve --draw`` and ``measure --draw``);
     above :data:`~satorder.render.order_svg.SUMMARY_AT` items a summary by level, said in one
-    line."""
+    line.  Without ``measures`` the order is measured first, within ``time_limit`` seconds."""
     from satorder.render.order_svg import SUMMARY_AT, pictures
 
     check_draw(path, source)
@@ -65,7 +66,7 @@ def write_pictures(path, source, succ, names, measures=None, weights=None) -> No
     elif measures is None:
         from satorder.measure.summary import measure
 
-        measures = measure(succ, time_limit=10.0)
+        measures = measure(succ, time_limit=time_limit)
     for name, text in pictures(path, succ, names, measures, weights).items():
         atomic_write(name, text)
         err.print(f"wrote {name}", markup=False)

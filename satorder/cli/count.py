@@ -63,7 +63,8 @@ def add_parser(sub):
     p.add_argument("--limit", type=int, default=None, metavar="N",
                    help="enumeration stops after N answers and reports a lower bound")
     p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
-                   help="enumeration stops after SECONDS and reports a lower bound")
+                   help="enumeration stops after SECONDS and reports a lower bound; the "
+                        "check that an answer exists gets as long again")
     p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
     p.add_argument("--draw", metavar="FILE.svg",
                    help=f"draw the modular decomposition tree (up to {DRAW_LIMIT} items)")
@@ -94,7 +95,7 @@ def run(args) -> int:
                             time_limit=args.time_limit, method=args.method,
                             on_progress=progress)
         bar.update(task, description="checking the count with another engine…")
-        check_count(res, solver=args.solver)
+        check_count(res, solver=args.solver, time_limit=args.time_limit)
     doc = res.to_json()
     if args.draw:
         from satorder.graph.modular import modular_decomposition

@@ -13,6 +13,7 @@ import sys
 
 from satorder.cli.common import err
 from satorder.errors import CertificateError, InputError
+from satorder.sat.runner import is_keyboard_error
 
 # one module per command; each has add_parser(subparsers) and run(args) -> int
 COMMANDS = ["solve", "demo", "measure", "explain", "generate", "bench", "cnf", "count", "orders"]
@@ -62,6 +63,9 @@ def main(argv: list[str] | None = None) -> int:
         sys.stderr.close()
         return 0
     except Exception as exc:  # a bug: one line for users, the traceback on request
+        if is_keyboard_error(exc):  # Ctrl-C inside a checker's own solver call
+            err.print("satorder: interrupted", markup=False)
+            return 130
         if os.environ.get("SATORDER_DEBUG"):
             raise
         err.print(f"satorder: internal error: {type(exc).__name__}: {exc} "

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import sys
+import time
 
 from satorder.cli.common import (
     add_report_option,
@@ -37,6 +38,7 @@ def add_parser(sub):
 
 
 def run(args) -> int:
+    end = None if args.time_limit is None else time.monotonic() + args.time_limit
     check_output_path(args.out, args.file)
     check_report_path(args.report, args.file)
     problem = load(args.file)
@@ -45,7 +47,9 @@ def run(args) -> int:
     if args.out:
         atomic_write(args.out, text)
     if args.draw and ans.feasible:
-        write_pictures(args.draw, args.file, ans.succ, problem.items, weights=problem.weights)
+        left = 10.0 if end is None else min(10.0, max(0.0, end - time.monotonic()))
+        write_pictures(args.draw, args.file, ans.succ, problem.items, weights=problem.weights,
+                       time_limit=left)
     if ans.status == INFEASIBLE and (args.report or not args.json):
         # one-screen summary: a minimal core of the requirements
         from satorder.explanation.explain import minimal_core_of

@@ -269,18 +269,18 @@ def _prime_count(adj, node: ModuleNode, arcs) -> int:
 
 # ------------------------------------------------------------------------ independent check
 def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int = 200,
-                solver: str | None = None) -> None:
+                solver: str | None = None, time_limit: float | None = None) -> None:
     """Check a count with engines that did not produce it; sets ``result.verified``.
 
     The solving engine (forcing or SAT, its order certified by :mod:`satorder.certify`) must
-    agree on whether any answer exists; and a decomposition count of at most ``recount_up_to``
-    on a problem of at most ``recount_items`` items is recounted by SAT enumeration, every
-    enumerated order certified.  Raises
+    agree on whether any answer exists (when it answers within ``time_limit``); and a
+    decomposition count of at most ``recount_up_to`` on a problem of at most ``recount_items``
+    items is recounted by SAT enumeration, every enumerated order certified.  Raises
     :class:`~satorder.errors.CertificateError` on disagreement.
     """
     problem = result.problem
     hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
-    ans = solve(hard, solver=solver)
+    ans = solve(hard, solver=solver, time_limit=time_limit)
     checks = []
     if ans.status == FEASIBLE:
         if result.exact and result.count == 0:

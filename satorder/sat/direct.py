@@ -15,7 +15,7 @@ from collections.abc import Iterable, Iterator
 from satorder.model.answer import Answer
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
-from satorder.sat.engine import SatSession, resolve_solver
+from satorder.sat import runner
 
 
 # ---------------------------------------------------------------------- baseline
@@ -93,8 +93,8 @@ def solve_direct(problem: Problem, solver: str | None = None,
     from pysat.solvers import Solver
 
     t0 = time.perf_counter()
-    deadline = None if time_limit is None else time.monotonic() + time_limit
-    name = resolve_solver(solver)
+    name = runner.resolve_solver(solver, time_limit)
+    deadline = runner.deadline_after(time_limit)
     enc = direct_encoding(problem)
     stats = {"solver": name, "encoding": "direct", "variables": enc.nv,
              "clauses": enc.num_clauses}
@@ -105,16 +105,8 @@ def solve_direct(problem: Problem, solver: str | None = None,
                 stats["seconds"] = round(time.perf_counter() - t0, 6)
                 return Answer(problem, UNKNOWN, "sat-direct", stats=stats)
         stats["encode_seconds"] = round(time.perf_counter() - t0, 6)
-        runner = SatSession.__new__(SatSession)  # reuse the limit/interrupt plumbing only
-        runner.solver, runner.solver_name = t, name
-        try:
-            t.interrupt()
-            t.clear_interrupt()
-            runner._interruptible = True
-        except NotImplementedError:
-            runner._interruptible = False
         t1 = time.perf_counter()
-        res = runner._run([], deadline)
+        res = runner.solve(t, deadline=deadline)
         stats["solve_seconds"] = round(time.perf_counter() - t1, 6)
         succ = enc.decode(t.get_model()) if res else None
     stats["seconds"] = round(time.perf_counter() - t0, 6)

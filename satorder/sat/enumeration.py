@@ -65,11 +65,13 @@ def enumerate_orders(problem: Problem, limit: int | None = None, solver: str | N
     """Yield the answers of ``problem`` (hard requirements only), at most
     ``limit`` of them and none after ``time_limit`` seconds.  Pass an :class:`EnumerationEnd`
     as ``end`` to learn whether the enumeration was complete."""
-    from satorder.sat.engine import SatSession
+    from satorder.sat import runner
+    from satorder.sat.session import SatSession
 
     end = end if end is not None else EnumerationEnd()
     t0 = time.monotonic()
-    deadline = None if time_limit is None else t0 + time_limit
+    deadline = runner.deadline_after(time_limit)
+    solver = runner.resolve_solver(solver, time_limit)
     end.found, end.complete, end.reason = 0, False, ""
     if limit is not None and limit <= 0:
         end.reason = "limit"

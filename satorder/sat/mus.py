@@ -38,7 +38,6 @@ core; larger universes plug in any object with the same ``check`` method.
 
 from __future__ import annotations
 
-import threading
 import time
 from collections.abc import Iterable
 from itertools import permutations
@@ -47,7 +46,9 @@ from pysat.examples.rc2 import RC2
 from pysat.formula import WCNF
 from pysat.solvers import Solver
 
+from satorder.errors import TimeLimitReached
 from satorder.model.requirement import Kind, Requirement, items_of
+from satorder.sat import runner
 
 SOLVER = "glucose42"  # the independent checks in certify.py use a different solver (MiniSat)
 
@@ -56,10 +57,12 @@ class RequirementOracle:
     """Incremental feasibility of subsets of ``requirements`` (indices into the list).
 
     ``check(active)`` returns ``(True, arcs)`` with the arcs ``(a, b)`` of an order meeting the
-    active requirements, or ``(False, core)`` with a subset of ``active`` that is infeasible.
+    active requirements, or ``(False, core)`` with a subset of ``active`` that is infeasible;
+    it raises :class:`~satorder.errors.TimeLimitReached` once the ``deadline`` (a
+    ``time.monotonic()`` value, or None) has passed.
     """
 
-    def __init__(self, requirements: list[Requirement]):
+    def __init__(self, requirements: list[Requirement], deadline: float | None = None):
         self.requirements = list(requirements)
         items = items_of(self.requirements)
         self.items = items
@@ -83,6 +86,7 @@ class RequirementOracle:
                 clauses.append([-s, -var[a, b]])
         self.clauses = clauses
         self.solver = Solver(name=SOLVER, bootstrap_with=clauses)
+        self.deadline = deadline
         self.calls = 0
 
     def check(self, active: Iterable[int]):
@@ -92,7 +96,10 @@ class RequirementOracle:
         assumptions = [
             s if k in on else -s for k, s in enumerate(self.selector)
         ]
-        if self.solver.solve(assumptions=assumptions):
+        res = runner.solve(self.solver, assumptions, self.deadline)
+        if res is None:
+            raise TimeLimitReached("the core search reached its time limit")
+        if res:
             model = self.solver.get_model()
             arcs = [ab for ab, v in self.var.items() if model[v - 1] > 0]
             return True, arcs
@@ -127,15 +134,15 @@ class RequirementOracle:
 
 class SessionOracle:
     """The same ``check`` interface over the SAT engine's compact encoding with lazy
-    transitivity (:class:`satorder.sat.engine.SatSession` with selectors), for requirement sets
+    transitivity (:class:`satorder.sat.session.SatSession` with selectors), for requirement sets
     whose
     items are too many for the all-triples :class:`RequirementOracle`.  The requirements are
     posed as a problem of their own: only their pairs are comparable or unordered, all other
     pairs open."""
 
-    def __init__(self, requirements: list[Requirement], time_limit: float | None = None):
+    def __init__(self, requirements: list[Requirement], deadline: float | None = None):
         from satorder.model.problem import Problem
-        from satorder.sat.engine import SatSession
+        from satorder.sat.session import SatSession
 
         self.requirements = list(requirements)
         self.items = items_of(self.requirements)
@@ -160,15 +167,15 @@ class SessionOracle:
                       fixed=fixed, forbidden=forbidden)
         self.session = SatSession(sub, selectors=True)
         self._index = {key: k for k, key in enumerate(self.keys)}
-        self.time_limit = time_limit
+        self.deadline = deadline
         self.calls = 0
 
     def check(self, active: Iterable[int]):
         self.calls += 1
         active = list(active)
-        res = self.session.solve(keep=[self.keys[k] for k in active], time_limit=self.time_limit)
+        res = self.session.solve(keep=[self.keys[k] for k in active], deadline=self.deadline)
         if res is None:
-            raise TimeoutError("the SAT engine reached its time limit")
+            raise TimeLimitReached("the core search reached its time limit")
         if res:
             succ = self.session.order()
             return True, [(self.items[a], self.items[b]) for a, s in enumerate(succ) for b in s]
@@ -219,24 +226,6 @@ def minimal_core(oracle, start: Iterable[int]) -> list[int]:
             current = core  # contains every needed member: each lies in every core of `current`
 
 
-def _compute(rc2: RC2, deadline: float):
-    """``rc2.compute()`` stopped at ``deadline`` (a ``time.monotonic()`` value): the optimal
-    model, or ``None`` when the time ran out (or the hard clauses are unsatisfiable)."""
-    left = deadline - time.monotonic()
-    if left <= 0:
-        return None
-    timer = threading.Timer(left, rc2.interrupt)
-    timer.start()
-    try:
-        model = rc2.compute(expect_interrupt=True)
-    finally:
-        timer.cancel()
-    if rc2.interrupted:
-        rc2.clear_interrupt()
-        return None
-    return model
-
-
 def smallest_core(
     oracle, universe: Iterable[int], time_limit: float = 10.0
 ) -> tuple[list[int] | None, bool]:
@@ -246,7 +235,7 @@ def smallest_core(
     first (the caller then keeps its minimal core and says so).
     """
     universe = list(universe)
-    deadline = time.monotonic() + time_limit
+    deadline = runner.deadline_after(time_limit)
     # minimum hitting sets of the correction sets found so far, by MaxSAT: one variable per
     # member of the universe, each unit soft clause "leave it out" of weight 1
     hvar = {k: i + 1 for i, k in enumerate(universe)}
@@ -255,8 +244,8 @@ def smallest_core(
         wcnf.append([-hvar[k]], weight=1)
     with RC2(wcnf, solver=SOLVER) as hitter:
         while time.monotonic() < deadline:
-            model = _compute(hitter, deadline)
-            if model is None:
+            model, stopped = runner.maxsat(hitter, deadline)
+            if stopped or model is None:
                 return None, False
             chosen = {v for v in model if v > 0}
             candidate = sorted(k for k in universe if hvar[k] in chosen)
@@ -297,11 +286,11 @@ def correction_sets(oracle, universe: Iterable[int], limit: int, time_limit: flo
     for k in universe:
         wcnf.append([oracle.selector[k]], weight=1)
     found: list[list[int]] = []
-    deadline = time.monotonic() + time_limit
+    deadline = runner.deadline_after(time_limit)
     with RC2(wcnf, solver=SOLVER) as rc2:
         while len(found) < limit and time.monotonic() < deadline:
-            model = _compute(rc2, deadline)
-            if model is None:
+            model, stopped = runner.maxsat(rc2, deadline)
+            if stopped or model is None:
                 break
             pos = set(v for v in model if v > 0)
             mcs = [k for k in universe if oracle.selector[k] not in pos]

@@ -28,12 +28,12 @@ simply adds its weight to every answer.
 
 from __future__ import annotations
 
-import threading
 import time
 
 from satorder.model.answer import Answer
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
+from satorder.sat import runner
 from satorder.sat.encoding import Encoding
 
 MAXSAT_ORACLE = "glucose4"  # interruptible through python-sat, so time limits hold
@@ -53,7 +53,8 @@ def solve_preferences(problem: Problem, solver: str | None = None,
     (the order against every requirement, the cost against the preferences).
     """
     t0 = time.perf_counter()
-    deadline = None if time_limit is None else time.monotonic() + time_limit
+    solver = runner.resolve_solver(solver, time_limit)
+    deadline = runner.deadline_after(time_limit)
     stats: dict = {"maxsat_rounds": 0, "greedy_solves": 0}
     best: tuple[int, list[set[int]]] | None = None
     if deadline is not None:
@@ -74,12 +75,11 @@ def solve_preferences(problem: Problem, solver: str | None = None,
     optimal = False
     with _Rc2Session(softs) as maxsat:
         while True:
-            left = None if deadline is None else deadline - time.monotonic()
-            if left is not None and left <= 0:
+            if deadline is not None and time.monotonic() >= deadline:
                 break
             stats["maxsat_rounds"] += 1
             maxsat.add_hard(enc.take_new())
-            model, relaxed_cost, finished = maxsat.compute(left)
+            model, relaxed_cost, finished = maxsat.compute(deadline)
             lower = max(lower, always + relaxed_cost)
             if not finished:
                 break
@@ -131,31 +131,23 @@ class _Rc2Session:
                 self.rc2.add_clause([lit], weight=w)
             self._soft_added = True
 
-    def compute(self, time_limit: float | None):
-        """``(model or None, cost of the cores relaxed so far, finished)``."""
-        rc2 = self.rc2
-        timer = None
-        if time_limit is not None:
-            timer = threading.Timer(max(0.0, time_limit), rc2.interrupt)
-            timer.daemon = True
-            timer.start()
-        try:
-            model = rc2.compute(expect_interrupt=time_limit is not None)
-        finally:
-            if timer is not None:
-                timer.cancel()
-        if getattr(rc2, "interrupted", False):
-            return None, rc2.cost, False
-        return model, rc2.cost, True
+    def compute(self, deadline: float | None):
+        """``(model or None, cost of the cores relaxed so far, finished)``; RC2 runs under the
+        runner (:func:`satorder.sat.runner.maxsat`), which interrupts its oracle at the
+        ``deadline`` or on Ctrl-C."""
+        model, stopped = runner.maxsat(self.rc2, deadline)
+        if stopped:
+            return None, self.rc2.cost, False
+        return model, self.rc2.cost, True
 
 
 def _greedy(problem, solver, t0, deadline, time_limit, stats):
     """A certified first order, improved by keeping preferences heaviest first while they can
     be met together; returns ``(cost, succ)``, or a final Answer when no order exists or none
     is found in time.  Uses at most a third of the time limit."""
-    from satorder.sat.engine import SatSession
+    from satorder.sat.session import SatSession
 
-    stop = min(deadline, time.monotonic() + time_limit / 3)
+    stop = runner.deadline_after(time_limit / 3, deadline)
     with SatSession(problem, solver=solver) as s:
         res = s.solve(deadline=deadline)
         stats["greedy_solves"] += 1

@@ -6,6 +6,7 @@ from __future__ import annotations
 import itertools
 import json
 import random
+import time
 
 import networkx as nx
 import pytest
@@ -191,6 +192,30 @@ def test_measure_cli_infeasible_and_bad_draw_name(tmp_path, capsys):
     g = tmp_path / "line.txt"
     g.write_text("a b\n")
     assert main(["measure", str(g), "--draw", str(tmp_path / "x.png")]) == 2
+
+
+def test_measure_cli_keeps_its_time_limit_on_the_standard_example_s11(tmp_path, capfd):
+    # S_11: a_i < b_j exactly when i != j, dimension 11 (Dushnik & Miller 1941); proving that
+    # takes the SAT search minutes, so with --time-limit 5 the command reports a bounded (or
+    # exact) dimension that its checker confirmed, and writes nothing to stderr
+    f = tmp_path / "s11.txt"
+    f.write_text("".join(f"a{i} b{j}\n" for i in range(1, 12) for j in range(1, 12) if i != j))
+    t0 = time.monotonic()
+    assert main(["measure", str(f), "--json", "--time-limit", "5"]) == 0
+    assert time.monotonic() - t0 < 60  # a sanity bound: it returned
+    out, err = capfd.readouterr()
+    assert err == ""
+    res = json.loads(out)
+    assert res["verified"] is True and res["width"] == 11 and res["height"] == 2
+    if res["dimension_status"] == "exact":
+        assert res["dimension"] == 11
+    else:
+        assert res["dimension_status"] == "bounded"
+        lower, upper = res["dimension_bounds"]
+        assert 3 <= lower <= 11 <= upper
+        assert res["dimension_witness"]["dimension_at_least"] == lower
+    assert main(["measure", str(f), "--time-limit", "0"]) == 2  # not a time limit
+    assert "--time-limit must be positive" in capfd.readouterr().err
 
 
 def test_measure_on_solved_problem_matches_networkx():

@@ -219,11 +219,12 @@ def test_time_limit_gives_unknown_and_exit_3(tmp_path, capsys):
     assert doc["status"] == "unknown" and not doc["verified"] and "order" not in doc
 
 
-@pytest.mark.parametrize("solver, limit", [("cadical195", None), ("glucose4", 600.0),
-                                           ("cadical195", 600.0)])
+@pytest.mark.parametrize("solver, limit", [("cadical195", None), ("glucose4", None),
+                                           ("glucose4", 600.0), ("cadical195", 600.0)])
 def test_ctrl_c_stops_cleanly(solver, limit):
     # SIGINT while the engine runs (in the solver or between rounds) surfaces as
     # KeyboardInterrupt, which the CLI turns into exit status 130; the process stays usable
+    # (solver calls go through satorder.sat.runner, tested per back end in test_runner.py)
     import os
     import signal
     import threading
@@ -244,5 +245,5 @@ def test_ctrl_c_stops_cleanly(solver, limit):
                 solve_sat(p, solver=solver, time_limit=limit)
     finally:
         timer.cancel()
-    assert time.monotonic() - t0 < 30
+    assert time.monotonic() - t0 < 60  # a sanity bound: it returned
     assert solve_sat(tiny, solver=solver).feasible

@@ -15,7 +15,10 @@ from satorder import Problem, certify
 from satorder.errors import InputError
 from satorder.model.problem import ProblemBuilder
 from satorder.pipeline.solve import solve, solve_forcing, verify
-from satorder.sat.engine import SatSession, find_core, resolve_solver, solve_sat
+from satorder.sat.cores import find_core
+from satorder.sat.engine import solve_sat
+from satorder.sat.runner import resolve_solver
+from satorder.sat.session import SatSession
 
 # ---------------------------------------------------------------------- brute force
 

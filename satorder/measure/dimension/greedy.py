@@ -40,7 +40,8 @@ def greedy_realizer(sub: list[set[int]], seed: int = 0, max_orders: int | None =
     """Linear extensions built one at a time, each reversing as many not yet reversed critical
     pairs as it can (pairs tried in random order, kept when they close no cycle; the order is
     kept transitively closed as bitsets).  Returns the list of orders (local ids), or ``None``
-    when more than ``max_orders`` would be needed or the ``deadline`` passes."""
+    when more than ``max_orders`` would be needed or the ``deadline`` (a ``time.monotonic()``
+    value) passes."""
     n = len(sub)
     rng = random.Random(seed)
     todo = critical_pairs(sub)
@@ -59,7 +60,7 @@ def greedy_realizer(sub: list[set[int]], seed: int = 0, max_orders: int | None =
     while todo:
         if max_orders is not None and len(realizer) >= max_orders:
             return None
-        if deadline is not None and time.perf_counter() > deadline:
+        if deadline is not None and time.monotonic() > deadline:
             return None
         up, down = list(base_up), list(base_down)
         rng.shuffle(todo)
@@ -93,7 +94,7 @@ def _greedy_bound(sub, items, upper, tries=3, seconds=10.0):
     if len(items) > GREEDY_LIMIT:
         return None
     best = None
-    deadline = time.perf_counter() + seconds
+    deadline = time.monotonic() + seconds
     for seed in range(tries):
         r = greedy_realizer(sub, seed, max_orders=upper if best is None else len(best) - 1,
                             deadline=deadline)

@@ -4,19 +4,25 @@ incomparable pair; k = 3, 4, ... until satisfiable.
 
 from __future__ import annotations
 
+from satorder.sat import runner
 
-def sat_realizer(sub: list[set[int]], k: int, time_limit: float | None = None):
+SOLVER = "cadical195"
+
+
+def sat_realizer(sub: list[set[int]], k: int, time_limit: float | None = None,
+                 deadline: float | None = None):
     """``k`` linear orders realizing ``sub`` (local ids), ``None`` if there are none, or
-    ``"unknown"`` when the time limit ran out.
+    ``"unknown"`` when the time limit (seconds) or the ``deadline`` (a ``time.monotonic()``
+    value) came first; the solver runs under :func:`satorder.sat.runner.solve`.
 
     Encoding: ``x[i][a,b]`` (a < b as ids) true when a comes before b in the i-th order; unit
     clauses fix every ordered pair of ``sub``; two clauses per item triple and order keep each
     order transitive; each incomparable pair is put one way in some order and the other way in
     another.  The first incomparable pair is fixed both ways in orders 1 and 2 (symmetry).
     """
-    import threading
-
     from pysat.solvers import Solver
+
+    deadline = runner.deadline_after(time_limit, deadline)
 
     n = len(sub)
     var = {}
@@ -53,16 +59,8 @@ def sat_realizer(sub: list[set[int]], k: int, time_limit: float | None = None):
     if first is not None and k >= 2:
         clauses.append([var[0, first[0], first[1]]])
         clauses.append([-var[1, first[0], first[1]]])
-    with Solver(name="cadical195", bootstrap_with=clauses) as s:
-        timer = None
-        if time_limit is not None:
-            timer = threading.Timer(time_limit, s.interrupt)
-            timer.start()
-        try:
-            ok = s.solve_limited(expect_interrupt=True) if timer else s.solve()
-        finally:
-            if timer:
-                timer.cancel()
+    with Solver(name=SOLVER, bootstrap_with=clauses) as s:
+        ok = runner.solve(s, deadline=deadline)
         if ok is None:
             return "unknown"
         if not ok:

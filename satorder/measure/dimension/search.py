@@ -17,6 +17,7 @@ from satorder.measure.dimension.partition import large_part_realizer
 from satorder.measure.dimension.result import Dimension, Part
 from satorder.measure.dimension.sat import sat_realizer
 from satorder.measure.dimension.split import _co_components, _components, _hiraguchi, _join, _local
+from satorder.sat import runner
 
 #: largest incomparability graph (pairs) built for the exact dimension-2 test of one part
 MAX_INCOMPARABLE_PAIRS = 3_000_000
@@ -25,8 +26,7 @@ MAX_INCOMPARABLE_PAIRS = 3_000_000
 def dimension_of_items(succ, items, sat_limit=40, deadline=None):
     """:func:`dimension` of the sub-order on ``items``, answers in item ids."""
     sub = _local(succ, items)
-    left = None if deadline is None else max(0.1, deadline - time.perf_counter())
-    d = dimension(sub, sat_limit=sat_limit, time_limit=left)
+    d = dimension(sub, sat_limit=sat_limit, time_limit=None, deadline=deadline)
     if d.realizer is not None:
         d.realizer = [[items[i] for i in lin] for lin in d.realizer]
     return d
@@ -37,13 +37,18 @@ def _bounded(succ, items, lower, upper, witness, witness_lower, sub=None,
     """A part known only within bounds: try a greedy realizer to lower the upper bound (it
     settles the dimension when it has ``lower`` orders), for at most 10 s and never past the
     ``deadline``."""
-    seconds = 10.0 if deadline is None else min(10.0, deadline - time.perf_counter())
+    seconds = 10.0 if deadline is None else min(10.0, runner.seconds_left(deadline))
     if len(items) <= GREEDY_LIMIT and seconds > 0:
         r = _greedy_bound(sub if sub is not None else _local(succ, items), items, upper,
                           seconds=seconds)
         if r is not None:
             return Part(lower, len(r), r, witness, witness_lower)
     return Part(lower, upper, None, witness, witness_lower)
+
+
+def _at_most(seconds: float, deadline: float | None) -> float:
+    """``seconds``, or less when the ``deadline`` is nearer."""
+    return seconds if deadline is None else min(seconds, runner.seconds_left(deadline))
 
 
 def _part_width(succ, items):
@@ -62,13 +67,14 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> Part:
     if incomparable > MAX_INCOMPARABLE_PAIRS:
         # a quick look for a small sub-order of dimension >= 3 first: when one exists the
         # refinement below cannot succeed
-        found = sample_witness(succ, pred, items, tries=20, seconds=3.0)
+        found = sample_witness(succ, pred, items, tries=20, seconds=_at_most(3.0, deadline))
         if found is None:
             real = large_part_realizer(succ, pred, items, sat_limit, deadline, notes,
                                        realize=dimension_of_items)
             if real is not None:
                 return Part(2, 2, real)
-            found = sample_witness(succ, pred, items, seed=1)
+            found = sample_witness(succ, pred, items, seed=1,
+                                   seconds=_at_most(5.0, deadline))
         upper = min(_part_width(succ, items), _hiraguchi(k))
         notes.append(f"a part of {k} items has {incomparable} incomparable pairs, too many for "
                      "the exact dimension-2 test; dimension bounded"
@@ -87,8 +93,7 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> Part:
     if k > sat_limit:
         if k <= 3 * sat_limit:
             # the witness proves ≥ 3; three orders found within a short budget settle it
-            left = 5.0 if deadline is None else min(5.0, deadline - time.perf_counter())
-            r = sat_realizer(sub, 3, max(0.1, left)) if left > 0 else "unknown"
+            r = sat_realizer(sub, 3, time_limit=5.0, deadline=deadline)
             if isinstance(r, list):
                 return Part(3, 3, [[items[i] for i in lin] for lin in r], wit, 3)
             if r is None and upper >= 4 and k <= 60:  # proven: no 3 orders (checkable size)
@@ -102,8 +107,7 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> Part:
                          "items (the SAT limit); dimension bounded")
         return part
     for d in range(3, upper + 1):
-        left = None if deadline is None else max(0.1, deadline - time.perf_counter())
-        r = sat_realizer(sub, d, left)
+        r = sat_realizer(sub, d, deadline=deadline)
         if r == "unknown":
             notes.append(f"SAT search for a realizer of size {d} ran out of time on a part of "
                          f"{k} items")
@@ -116,8 +120,11 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> Part:
 
 
 def dimension(succ: list[set[int]], sat_limit: int = 40,
-              time_limit: float | None = 60.0) -> Dimension:
-    """The dimension of an order, with a realizer when exact (see module doc)."""
+              time_limit: float | None = 60.0, deadline: float | None = None) -> Dimension:
+    """The dimension of an order, with a realizer when exact (see module doc).
+
+    The search stops at ``time_limit`` seconds, or at the ``deadline`` (a ``time.monotonic()``
+    value) if that comes first, and then reports bounds."""
     t0 = time.perf_counter()
     n = len(succ)
     if n == 0:
@@ -127,7 +134,7 @@ def dimension(succ: list[set[int]], sat_limit: int = 40,
         for b in s:
             pred[b].add(a)
 
-    deadline = None if time_limit is None else t0 + time_limit
+    deadline = runner.deadline_after(time_limit, deadline)
     notes: list[str] = []
     mark = [-1] * n
     tag = 0
