@@ -16,7 +16,8 @@ from satorder.errors import CertificateError, InputError
 from satorder.sat.runner import is_keyboard_error
 
 # one module per command; each has add_parser(subparsers) and run(args) -> int
-COMMANDS = ["solve", "demo", "measure", "explain", "generate", "bench", "cnf", "count", "orders"]
+COMMANDS = ["solve", "demo", "measure", "explain", "generate", "bench", "cnf", "count", "orders",
+            "settled", "sample"]
 
 
 class _Parser(argparse.ArgumentParser):

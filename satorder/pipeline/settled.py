@@ -1,0 +1,412 @@
+"""What the evidence settles: for every pair that may be ordered, the share of the answers
+putting ``a`` before ``b``, ``b`` before ``a``, or neither, and whether the pair is *settled*
+(one of the three shares is 1).
+
+Three methods, and the result says which one was used (``method``):
+
+* ``"modular-decomposition"`` — problems without open pairs, exact at any size: the shares
+  are read off the modular decomposition, one formula per pair of children of a node
+  (:mod:`satorder.graph.pair_shares`), so 50,000 items and millions of pairs cost one pass.
+* ``"listing"`` — problems with open pairs and at most :data:`EXACT_LIMIT` answers, exact:
+  every answer is counted by inserting the items one at a time
+  (:mod:`satorder.graph.insertion`), each pair's count added up on the way.
+* ``"approximate"`` — more answers: their number is estimated by ApproxMC with stated
+  (ε, δ) (:mod:`satorder.sat.modelcount`) and the shares by the fractions among ``samples``
+  answers drawn almost uniformly by UniGen (:mod:`satorder.sat.sampling`); ``exact`` is False.
+
+Whether a pair is settled is exact in every method: with open pairs, the relations each pair
+takes in some answer are decided by SAT calls with assumptions (:mod:`satorder.sat.support`),
+every witness answer certified.
+
+Checks by code that did not produce the result (their list is in ``checks``): the decomposition
+tree (:mod:`satorder.certify.decomposition`) and a uniformly drawn answer that meets every
+settled pair (:func:`satorder.certify.order.check_order`); for the listing, every relation with
+a positive share has a certified witness and every other one is refuted by the SAT engine; up
+to :data:`RECOUNT` answers, every share is recounted from a SAT enumeration of certified orders.
+An infeasible problem gets the verified answer of :func:`satorder.pipeline.solve.solve`, whose
+core (or forcing chain) says why.
+
+>>> from satorder.model.problem import Problem
+>>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")], fixed=[("a", "b")])
+>>> res = settled(p)
+>>> res.answers, res.exact, [(p.names((a, b)), before) for a, b, before, *_ in res.pairs()][:1]
+(3, True, [(['a', 'b'], 1.0)])
+"""
+
+from __future__ import annotations
+
+import random
+import time
+from dataclasses import dataclass, field
+from fractions import Fraction
+from typing import Any
+
+from satorder.certify.decomposition import check_decomposition
+from satorder.certify.order import check_order
+from satorder.errors import CertificateError, InputError, TimeLimitReached
+from satorder.graph.constrained import TooManyStates, constrain
+from satorder.graph.decomposition_sample import sample_order
+from satorder.graph.pair_shares import ShareBlock, shares
+from satorder.model.answer import Answer
+from satorder.model.problem import Problem
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN, Status
+from satorder.sat import runner
+from satorder.sat.support import AFTER, BEFORE, UNORDERED, pair_support, relation
+
+DECOMPOSITION, LISTING, APPROXIMATE = "modular-decomposition", "listing", "approximate"
+METHODS = ("auto", DECOMPOSITION, LISTING, APPROXIMATE)
+EXACT_LIMIT = 100_000  # answers up to which problems with open pairs get exact shares
+NODE_BUDGET = 20 * EXACT_LIMIT  # search nodes the listing may spend before giving way
+SAMPLES = 1000  # answers drawn for approximate shares
+RECOUNT = 300  # exact results with at most this many answers are recounted by SAT enumeration
+FLIP = {BEFORE: AFTER, AFTER: BEFORE, UNORDERED: UNORDERED}
+
+
+@dataclass
+class SettledResult:
+    """The outcome of :func:`settled`; ``blocks`` hold the shares (see
+    :class:`~satorder.graph.pair_shares.ShareBlock`), ``answer`` the verified answer of
+    ``solve`` when the problem is infeasible."""
+
+    problem: Problem
+    status: Status
+    method: str
+    answers: int | None
+    exact: bool
+    blocks: list[ShareBlock] = field(default_factory=list)
+    epsilon: float | None = None
+    delta: float | None = None
+    samples: int = 0
+    answer: Answer | None = None
+    drawn: list = field(default_factory=list, repr=False)  # sampled answers (approximate)
+    verified: bool = False
+    checks: list[str] = field(default_factory=list)
+    notes: list[str] = field(default_factory=list)
+    stats: dict[str, Any] = field(default_factory=dict)
+
+    def __post_init__(self) -> None:
+        self.status = Status(self.status)
+
+    # ------------------------------------------------------------------ reading
+    def pairs(self):
+        """Every pair that may be ordered as ``(a, b, before, after, unordered, settled)``
+        (item ids, shares as floats), ``a`` listed so that ``before >= after``."""
+        for blk in self.blocks:
+            values = (float(blk.before), float(blk.after), float(blk.unordered), blk.settled)
+            for a in blk.left:
+                for b in blk.right:
+                    yield (a, b, *values)
+
+    def counts(self) -> dict[str, int]:
+        """Pairs settled before (one way), settled unordered, and free."""
+        out = {"settled_before": 0, "settled_unordered": 0, "free": 0}
+        for blk in self.blocks:
+            key = ("free" if not blk.settled else
+                   "settled_unordered" if blk.unordered == 1 else "settled_before")
+            out[key] += blk.pairs
+        return out
+
+    def share(self, a: int, b: int) -> tuple[float, float, float] | None:
+        """``(before, after, unordered)`` of the pair ``(a, b)``, or None if it is not listed
+        (it must stay unordered).  Scans the blocks: for single look-ups."""
+        for blk in self.blocks:
+            if a in blk.left and b in blk.right:
+                return float(blk.before), float(blk.after), float(blk.unordered)
+            if b in blk.left and a in blk.right:
+                return float(blk.after), float(blk.before), float(blk.unordered)
+        return None
+
+    # ------------------------------------------------------------------ JSON
+    def _head(self) -> dict[str, Any]:
+        doc: dict[str, Any] = {"status": self.status, "answers": self.answers,
+                               "exact": self.exact, "method": self.method}
+        if self.method == APPROXIMATE:
+            doc["epsilon"], doc["delta"], doc["samples"] = self.epsilon, self.delta, self.samples
+        return doc
+
+    def _tail(self) -> dict[str, Any]:
+        doc: dict[str, Any] = {**self.counts()}
+        if self.answer is not None and self.status == INFEASIBLE:
+            sub = self.answer.to_json()
+            for key in ("conflict", "core"):
+                if key in sub:
+                    doc[key] = sub[key]
+        if self.notes:
+            doc["notes"] = self.notes
+        doc["items"] = self.problem.n
+        doc["comparable_pairs"] = self.problem.num_comparable
+        doc["verified"] = self.verified
+        doc["checks"] = self.checks
+        doc["stats"] = self.stats
+        return doc
+
+    def to_json(self) -> dict[str, Any]:
+        """The machine-readable result (the contract of docs/cli.md) as a dict."""
+        names = self.problem.items
+        rows = [{"pair": [names[a], names[b]], "before": x, "after": y, "unordered": z,
+                 "settled": s} for a, b, x, y, z, s in self.pairs()]
+        return {**self._head(), "pairs": rows, **self._tail()}
+
+    def to_json_text(self) -> str:
+        """The same document as one line of text, written block by block: the part shared by
+        a block's pairs is formatted once, so millions of pairs cost one string join."""
+        import json
+
+        def dumps(doc):
+            return json.dumps(doc, separators=(",", ":"))
+
+        q = [json.dumps(name) for name in self.problem.items]
+        parts = []
+        for blk in self.blocks:
+            tail = (f'],"before":{float(blk.before)!r},"after":{float(blk.after)!r},'
+                    f'"unordered":{float(blk.unordered)!r},'
+                    f'"settled":{"true" if blk.settled else "false"}}}')
+            right = [q[b] for b in blk.right]
+            for a in blk.left:
+                head = '{"pair":[' + q[a] + ","
+                parts.append(",".join([head + qb + tail for qb in right]))
+        parts = [p for p in parts if p]
+        return (dumps(self._head())[:-1] + ',"pairs":[' + ",".join(parts) + "],"
+                + dumps(self._tail())[1:] + "\n")
+
+
+# ---------------------------------------------------------------------- entry point
+def settled(problem: Problem, method: str = "auto", time_limit: float | None = None,
+            solver: str | None = None, seed: int = 0, samples: int = SAMPLES,
+            epsilon: float | None = None, delta: float | None = None,
+            exact_limit: int = EXACT_LIMIT) -> SettledResult:
+    """Pair shares and settled pairs of ``problem`` (see the module docstring).  Preferences
+    rank answers but rule none out, so they are ignored.  ``seed`` fixes the random draws."""
+    from satorder.sat.modelcount import DELTA, EPSILON
+
+    if method not in METHODS:
+        raise ValueError(f"unknown method {method!r}; one of {', '.join(METHODS)}")
+    t0 = time.perf_counter()
+    deadline = runner.deadline_after(time_limit)
+    hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
+    if method == "auto":
+        method = LISTING if hard.has_open_pairs else DECOMPOSITION
+    if method == DECOMPOSITION and hard.has_open_pairs:
+        raise InputError(f"{problem.source}: has open pairs, which the decomposition method "
+                         "cannot describe; use --method listing, approximate or auto")
+    res = None
+    if method == DECOMPOSITION:
+        try:
+            res = _by_decomposition(hard, seed)
+        except TooManyStates:
+            method = LISTING
+    if res is None and method == LISTING:
+        budget = None if deadline is None else time.monotonic() + (deadline -
+                                                                    time.monotonic()) / 2
+        res = _by_listing(hard, exact_limit, budget)
+        if res is None:
+            method = APPROXIMATE
+    if res is None:
+        res = _by_approximation(hard, samples, EPSILON if epsilon is None else epsilon,
+                                DELTA if delta is None else delta, seed, solver, deadline)
+    res.problem = problem
+    if res.status == INFEASIBLE or (res.status == FEASIBLE and res.answers == 0):
+        res = _infeasible(problem, res, solver, time_limit)
+    elif res.status == FEASIBLE:
+        try:
+            _check(res, hard, solver, deadline)
+        except TimeLimitReached:
+            res.status, res.blocks = UNKNOWN, []
+            res.notes.append("the time limit was reached before the settled pairs were checked")
+    res.stats["seconds"] = round(time.perf_counter() - t0, 6)
+    return res
+
+
+# ---------------------------------------------------------------------- the three methods
+def _by_decomposition(problem: Problem, seed: int) -> SettledResult:
+    t = time.perf_counter()
+    con = constrain(problem)
+    res = SettledResult(problem, FEASIBLE if con.count else INFEASIBLE, DECOMPOSITION,
+                        con.count, True)
+    res.stats["nodes"] = con.kinds
+    res.stats["decomposition_seconds"] = round(time.perf_counter() - t, 6)
+    if con.count:
+        res.blocks = list(shares(con))
+        res.stats["blocks"] = len(res.blocks)
+        t = time.perf_counter()
+        succ = sample_order(con, random.Random(seed))
+        check_order(problem, succ)  # a uniformly drawn answer, certified
+        _agrees(res, succ, "the certified answer drawn at random")
+        res.checks.append("a uniformly drawn answer is certified and meets every settled pair")
+        if con.tree is not None:
+            implied = check_decomposition(problem.adj, con.tree)
+            if implied is not None:
+                if not (problem.fixed or problem.forbidden) and implied != con.count:
+                    raise CertificateError(f"the checked decomposition implies {implied} "
+                                           f"answers, the shares assume {con.count}")
+                res.checks.append("decomposition tree checked: every child a module, node "
+                                  "kinds, prime quotients with two orientations")
+        res.stats["check_seconds"] = round(time.perf_counter() - t, 6)
+    return res
+
+
+def _by_listing(problem: Problem, limit: int, deadline: float | None) -> SettledResult | None:
+    from satorder.graph.insertion import tally
+
+    t = time.perf_counter()
+    nodes = [0]
+
+    def should_stop() -> bool:
+        nodes[0] += 4096
+        return nodes[0] > NODE_BUDGET or (deadline is not None and time.monotonic() > deadline)
+
+    tl = tally(problem, limit=limit, should_stop=should_stop)
+    if not tl.complete:
+        return None
+    res = SettledResult(problem, FEASIBLE if tl.total else INFEASIBLE, LISTING, tl.total, True)
+    res.stats["listing_nodes"] = tl.nodes
+    res.stats["listing_seconds"] = round(time.perf_counter() - t, 6)
+    if tl.total:
+        total = tl.total
+        for a, b in _orderable_pairs(problem):
+            x, y = Fraction(tl.before[a][b], total), Fraction(tl.before[b][a], total)
+            blk = ShareBlock([a], [b], x, y, 1 - x - y)
+            res.blocks.append(blk if blk.before >= blk.after else blk.flipped())
+    return res
+
+
+def _by_approximation(problem, samples, epsilon, delta, seed, solver, deadline):
+    from satorder.sat.answer_formula import AnswerFormula
+    from satorder.sat.modelcount import approximate_count
+    from satorder.sat.sampling import almost_uniform_samples
+
+    t = time.perf_counter()
+    formula = AnswerFormula(problem)
+    res = SettledResult(problem, UNKNOWN, APPROXIMATE, None, False, epsilon=epsilon, delta=delta)
+    est = approximate_count(formula, epsilon, delta, seed=seed + 1, deadline=deadline)
+    res.stats["count_seconds"] = est.seconds
+    if est.estimate is None:
+        res.notes.append("the time limit was reached while counting")
+        return res
+    res.answers = est.estimate  # the shares come from samples: never exact
+    res.stats["count_exact"] = est.exact
+    if est.estimate == 0:
+        res.status = INFEASIBLE
+        return res
+    drawn = almost_uniform_samples(formula, samples, seed=seed + 1, deadline=deadline)
+    if drawn is None:
+        res.notes.append("the time limit was reached while sampling")
+        return res
+    res.status, res.samples = FEASIBLE, len(drawn)
+    pairs = _orderable_pairs(problem)
+    tallies = {pq: [0, 0] for pq in pairs}
+    for succ in drawn:
+        check_order(problem, succ)
+        for (a, b), tl in tallies.items():
+            if b in succ[a]:
+                tl[0] += 1
+            elif a in succ[b]:
+                tl[1] += 1
+    k = len(drawn)
+    for a, b in pairs:
+        x, y = Fraction(tallies[(a, b)][0], k), Fraction(tallies[(a, b)][1], k)
+        blk = ShareBlock([a], [b], x, y, 1 - x - y)
+        res.blocks.append(blk if blk.before >= blk.after else blk.flipped())
+    res.checks.append(f"all {k} sampled answers certified")
+    res.stats["sample_seconds"] = round(time.perf_counter() - t - est.seconds, 6)
+    res.drawn = drawn  # the settled check starts from the relations they show
+    return res
+
+
+# ---------------------------------------------------------------------- checks
+def _orderable_pairs(problem: Problem) -> list[tuple[int, int]]:
+    n = problem.n
+    return [(a, b) for a in range(n) for b in range(a + 1, n)
+            if b in problem.adj[a] or not problem.must_be_unordered(a, b)]
+
+
+def _support_of(blk: ShareBlock) -> set[str]:
+    return {r for r, v in ((BEFORE, blk.before), (AFTER, blk.after),
+                           (UNORDERED, blk.unordered)) if v > 0}
+
+
+def _agrees(res: SettledResult, succ, what: str) -> None:
+    """Every settled block must hold in ``succ``."""
+    for blk in res.blocks:
+        if not blk.settled:
+            continue
+        want = BEFORE if blk.before == 1 else AFTER if blk.after == 1 else UNORDERED
+        for a in blk.left:
+            for b in blk.right:
+                if relation(succ, a, b) != want:
+                    raise CertificateError(f"{what} puts {res.problem.items[a]}, "
+                                           f"{res.problem.items[b]} otherwise than settled")
+
+
+def _check(res: SettledResult, problem: Problem, solver, deadline) -> None:
+    """The checks of the module docstring for problems with open pairs (listing, approximate)
+    and the recount of small exact results; sets ``verified``."""
+    if res.method in (LISTING, APPROXIMATE):
+        t = time.perf_counter()
+        single = [blk for blk in res.blocks if len(blk.left) == len(blk.right) == 1]
+        key = {(min(b.left[0], b.right[0]), max(b.left[0], b.right[0])): b for b in single}
+        drawn = res.drawn
+        seen = {pq: {relation(s, *pq) for s in drawn} for pq in key}
+        sup = pair_support(problem, list(key), seen=seen, solver=solver, deadline=deadline)
+        for succ in sup.witnesses:
+            check_order(problem, succ)
+        for (a, b), blk in key.items():
+            possible = sup.possible[(a, b)]
+            if blk.left[0] != a:  # the block lists the pair the other way round
+                possible = {FLIP[r] for r in possible}
+            if not _support_of(blk) <= possible or \
+                    (res.method == LISTING and possible != _support_of(blk)):
+                raise CertificateError(f"pair {problem.items[a]}, {problem.items[b]}: the "
+                                       f"{res.method} and the SAT engine disagree on the "
+                                       "relations it takes")
+            blk.exact_settled = len(possible) == 1
+        res.checks.append(f"settled pairs decided by {sup.calls} SAT calls with assumptions; "
+                          f"{len(sup.witnesses)} witness answers certified")
+        res.stats["support_seconds"] = round(time.perf_counter() - t, 6)
+        res.stats["support_calls"] = sup.calls
+    if res.exact and res.answers is not None and 0 < res.answers <= RECOUNT:
+        _recount(res, problem, solver)
+    res.verified = bool(res.checks)
+
+
+def _recount(res: SettledResult, problem: Problem, solver) -> None:
+    """Recount every share from a SAT enumeration of certified orders."""
+    from satorder.pipeline.orders import EnumerationEnd, certified_orders
+
+    end = EnumerationEnd()
+    before: dict[tuple[int, int], int] = {}
+    for found in certified_orders(problem, limit=res.answers + 1, solver=solver, end=end):
+        for a, s in enumerate(found.succ):
+            for b in s:
+                before[(a, b)] = before.get((a, b), 0) + 1
+    if not end.complete or end.found != res.answers:
+        raise CertificateError(f"{res.answers} answers claimed, SAT enumeration finds "
+                               f"{end.found}{'' if end.complete else ' or more'}")
+    for blk in res.blocks:
+        for a in blk.left:
+            for b in blk.right:
+                x = Fraction(before.get((a, b), 0), end.found)
+                y = Fraction(before.get((b, a), 0), end.found)
+                if x != blk.before or y != blk.after:
+                    raise CertificateError(f"pair {problem.items[a]}, {problem.items[b]}: "
+                                           "shares differ from the SAT enumeration")
+    res.checks.append(f"every share recounted from a SAT enumeration of {end.found} certified "
+                      "orders")
+
+
+def _infeasible(problem: Problem, res: SettledResult, solver, time_limit) -> SettledResult:
+    """No answer: the verified answer of solve, with its core or forcing chain."""
+    from satorder.pipeline.solve import solve
+
+    hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
+    ans = solve(hard, solver=solver, time_limit=time_limit)
+    if ans.status == FEASIBLE:
+        raise CertificateError(f"the {res.method} finds no answer, but the solver found a "
+                               "certified one")
+    out = SettledResult(problem, ans.status, res.method, 0 if ans.status == INFEASIBLE else None,
+                        ans.status == INFEASIBLE, answer=ans, stats=res.stats,
+                        notes=res.notes)
+    out.verified = ans.verified
+    if ans.verified:
+        out.checks.append("the solver's refutation is certified")
+    return out

@@ -1,0 +1,56 @@
+"""A CNF whose models, projected on the order literals, are exactly the answers of a problem —
+the formula handed to model counters and samplers.
+
+The compact encoding (:mod:`satorder.sat.encoding`) with every variable created up front (the
+open pairs' too) and every transitivity clause written (:meth:`Encoding.add_all_transitivity`,
+not the lazy loop): then every model is a strict partial order meeting every hard requirement,
+and two models that agree on the order literals are the same answer.  The order literals are
+all the variables of the encoding (a comparable pair's implication class shares one, an open
+pair has two), so counting or sampling the models *projected on them* counts or samples the
+answers (projected model counting, as in ApproxMC's "sampling set").
+
+Writing every transitivity clause costs a clause per orderable triple, so this is for problems
+of up to a few hundred items.
+
+>>> from satorder.model.problem import Problem
+>>> f = AnswerFormula(Problem.from_lists(items=["a", "b"], incomparable=[]))   # one open pair
+>>> len(f.projection), f.clauses                 # a<b, b<a, never both: 3 answers
+(2, [[-1, -2]])
+"""
+
+from __future__ import annotations
+
+from satorder.model.problem import Problem
+from satorder.sat.encoding import Encoding
+
+
+class AnswerFormula:
+    """``clauses`` over variables ``1 … nv``; ``projection`` the order variables; ``decode``
+    turns a model (or a sample over the projection) into successor sets; ``unsat`` is True when
+    the encoding already holds the empty clause."""
+
+    def __init__(self, problem: Problem):
+        enc = Encoding(problem)
+        n = problem.n
+        if problem.incomparable is not None:  # open pairs need their variables from the start
+            for a in range(n):
+                others = problem.incomparable[a]
+                adj = problem.adj[a]
+                for b in range(a + 1, n):
+                    if b not in adj and b not in others:
+                        enc.lt(a, b)
+        enc.add_all_transitivity()
+        self.problem = problem
+        self.enc = enc
+        self.clauses = enc.hard
+        self.nv = enc.nv
+        self.projection = list(range(1, enc.nv + 1))
+        self.unsat = any(not c for c in enc.hard)
+
+    def decode(self, model) -> list[set[int]]:
+        """Successor sets of the answer a model (or a projected sample) stands for."""
+        return self.enc.decode(model)
+
+    def literal(self, a: int, b: int) -> int | None:
+        """The literal meaning ``a < b`` (``None``: the pair must stay unordered)."""
+        return self.enc.lt(a, b)
