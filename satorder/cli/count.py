@@ -18,7 +18,15 @@ from satorder.cli.common import (
     write_report,
 )
 from satorder.io.files import atomic_write
-from satorder.pipeline.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
+from satorder.pipeline.count import (
+    APPROXIMATE,
+    DECOMPOSITION,
+    ENUMERATION,
+    LISTING_THRESHOLD,
+    METHODS,
+    check_count,
+    count_answers,
+)
 
 TREE_LIMIT = 60  # items up to which the decomposition tree is drawn on screen
 DRAW_LIMIT = 300  # items up to which --draw makes a picture
@@ -57,9 +65,13 @@ def add_parser(sub):
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
     p.add_argument("--out", metavar="FILE", help="also write the JSON result to FILE")
-    p.add_argument("--method", choices=("auto", DECOMPOSITION, ENUMERATION), default="auto",
+    p.add_argument("--method", choices=METHODS, default="auto",
                    help="modular decomposition (problems without open pairs), enumeration by "
-                        "SAT with blocking clauses, or auto (default)")
+                        "SAT with blocking clauses (every answer, however many), approximate "
+                        "(ApproxMC), or auto (default: enumeration that turns approximate past "
+                        f"{LISTING_THRESHOLD:,} answers)")
+    p.add_argument("--seed", type=int, default=0,
+                   help="seed of the approximate count's random hashes (default 0)")
     p.add_argument("--limit", type=int, default=None, metavar="N",
                    help="enumeration stops after N answers and reports a lower bound")
     p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
@@ -93,7 +105,7 @@ def run(args) -> int:
 
         res = count_answers(problem, limit=args.limit, solver=args.solver,
                             time_limit=args.time_limit, method=args.method,
-                            on_progress=progress)
+                            on_progress=progress, seed=args.seed)
         bar.update(task, description="checking the count with another engine…")
         check_count(res, solver=args.solver, time_limit=args.time_limit)
     doc = res.to_json()
@@ -116,7 +128,11 @@ def run(args) -> int:
         return 0
     how = {DECOMPOSITION: "by modular decomposition", ENUMERATION: "by SAT enumeration"}
     text = f"{res.count:,}"
-    if res.exact:
+    if res.method == APPROXIMATE:
+        d = res.to_json()
+        out.print(f"[bold]about {text}[/] answers (approximate model counting: {d['guarantee']}; "
+                  f"{d['lower_bound']:,} certified answers listed first).")
+    elif res.exact:
         out.print(f"[bold]{text}[/] answers ({how[res.method]}, exact).")
     else:
         out.print(f"[bold]at least {text}[/] answers ({how[res.method]}; stopped at the "

@@ -20,6 +20,11 @@ Two methods, and the result says which one was used:
   blocking clauses (:mod:`satorder.sat.enumeration`) and certified
   (:mod:`satorder.pipeline.orders`); with ``limit`` or
   ``time_limit`` reached first, the count is a lower bound (``exact`` is False).
+* ``"approximate"`` — problems with open pairs whose listing passes
+  :data:`LISTING_THRESHOLD` answers (method ``auto``), or on request: ApproxMC estimates the
+  number of answers within a factor ``1 + ε`` with probability at least ``1 − δ``
+  (:mod:`satorder.sat.modelcount`); ``exact`` is False, ``epsilon`` and ``delta`` are stated,
+  and the certified answers listed before the switch are a lower bound.
 
 Preferences rank answers but rule none out, so they do not change the count.
 
@@ -46,7 +51,9 @@ from satorder.model.requirement import FEASIBLE, INFEASIBLE
 from satorder.pipeline.orders import EnumerationEnd, certified_orders
 from satorder.pipeline.solve import solve
 
-DECOMPOSITION, ENUMERATION = "modular-decomposition", "enumeration"
+DECOMPOSITION, ENUMERATION, APPROXIMATE = "modular-decomposition", "enumeration", "approximate"
+METHODS = ("auto", DECOMPOSITION, ENUMERATION, APPROXIMATE)
+LISTING_THRESHOLD = 10_000  # method auto: past this many listed answers, count approximately
 
 
 @dataclass
@@ -68,7 +75,12 @@ class CountResult:
             "exact": self.exact,
             "method": self.method,
         }
-        if not self.exact:
+        if self.method == APPROXIMATE:
+            doc["epsilon"], doc["delta"] = self.stats["epsilon"], self.stats["delta"]
+            doc["guarantee"] = (f"within a factor {1 + doc['epsilon']:g} of the true count with "
+                                f"probability at least {1 - doc['delta']:g}")
+            doc["lower_bound"] = self.stats.get("enumerated", 0)
+        elif not self.exact:
             doc["lower_bound"] = self.count
             doc["stopped"] = self.reason
         if self.problem.prefer:
@@ -82,18 +94,25 @@ class CountResult:
 
 def count_answers(problem: Problem, limit: int | None = None, solver: str | None = None,
                   time_limit: float | None = None, method: str = "auto",
-                  on_progress=None) -> CountResult:
-    """Count the answers of ``problem``; see the module docstring for the two methods.
+                  on_progress=None, seed: int = 0) -> CountResult:
+    """Count the answers of ``problem``; see the module docstring for the methods.
 
-    ``method``: ``"auto"`` (decomposition when there are no open pairs), ``DECOMPOSITION`` or
-    ``ENUMERATION``.  ``limit``/``time_limit`` bound the enumeration only.  ``on_progress(k)`` is
-    called as enumerated answers arrive.
+    ``method``: ``"auto"`` (decomposition when there are no open pairs, otherwise enumeration
+    that turns approximate past :data:`LISTING_THRESHOLD` answers), ``DECOMPOSITION``,
+    ``ENUMERATION`` (list every answer however many) or ``APPROXIMATE``.  ``limit``/``time_limit``
+    bound the enumeration (the time limit also the approximate count).  ``on_progress(k)`` is
+    called as enumerated answers arrive; ``seed`` fixes ApproxMC's random hashes.
     """
-    if method not in ("auto", DECOMPOSITION, ENUMERATION):
+    if method not in METHODS:
         raise ValueError(f"unknown counting method {method!r}")
     t0 = time.perf_counter()
+    if method == APPROXIMATE or (method == "auto" and problem.has_open_pairs):
+        res = _count_open(problem, limit, solver, time_limit, on_progress, seed,
+                          listing=method == "auto")
+        res.stats["seconds"] = round(time.perf_counter() - t0, 6)
+        return res
     if method == "auto":
-        method = ENUMERATION if problem.has_open_pairs else DECOMPOSITION
+        method = DECOMPOSITION
     if method == DECOMPOSITION:
         if problem.has_open_pairs:
             raise InputError(f"{problem.source}: has open pairs, which the decomposition "
@@ -112,6 +131,46 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
 
 
 # ------------------------------------------------------------------------ enumeration
+def _count_open(problem, limit, solver, time_limit, on_progress, seed, listing) -> CountResult:
+    """List up to :data:`LISTING_THRESHOLD` answers (when ``listing``), then count
+    approximately."""
+    from satorder.sat import runner
+
+    deadline = runner.deadline_after(time_limit)
+    listed = None
+    if listing:
+        cap = LISTING_THRESHOLD if limit is None else min(limit, LISTING_THRESHOLD)
+        listed = _count_by_enumeration(problem, cap, solver, time_limit, on_progress)
+        if listed.exact or listed.reason != "limit" or cap == limit:
+            return listed
+    res = _count_approximately(problem, seed, deadline)
+    if res is None:  # the time limit came first
+        if listed is not None:
+            listed.reason = "time limit"
+            return listed
+        return CountResult(problem, 0, False, ENUMERATION, reason="time limit",
+                           stats={"enumerated": 0})
+    if listed is not None:
+        res.stats["enumerated"] = listed.count
+        res.count = max(res.count, listed.count)
+    return res
+
+
+def _count_approximately(problem, seed, deadline) -> CountResult | None:
+    from satorder.sat.answer_formula import AnswerFormula
+    from satorder.sat.modelcount import DELTA, EPSILON, approximate_count
+
+    hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
+    est = approximate_count(AnswerFormula(hard), EPSILON, DELTA, seed=seed + 1,
+                            deadline=deadline)
+    if est.estimate is None:
+        return None
+    stats = {"epsilon": est.epsilon, "delta": est.delta, "cells": est.cells,
+             "hashes": est.hashes, "approxmc_seconds": est.seconds, "enumerated": 0}
+    return CountResult(problem, est.estimate, est.exact and est.estimate == 0, APPROXIMATE,
+                       stats=stats)
+
+
 def _count_by_enumeration(problem, limit, solver, time_limit, on_progress) -> CountResult:
     end = EnumerationEnd()
     for found in certified_orders(problem, limit=limit, solver=solver, time_limit=time_limit,

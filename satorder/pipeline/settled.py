@@ -57,7 +57,7 @@ DECOMPOSITION, LISTING, APPROXIMATE = "modular-decomposition", "listing", "appro
 METHODS = ("auto", DECOMPOSITION, LISTING, APPROXIMATE)
 EXACT_LIMIT = 100_000  # answers up to which problems with open pairs get exact shares
 NODE_BUDGET = 20 * EXACT_LIMIT  # search nodes the listing may spend before giving way
-SAMPLES = 1000  # answers drawn for approximate shares
+SAMPLES = 200  # answers drawn for approximate shares (each costs UniGen a hashed search)
 RECOUNT = 300  # exact results with at most this many answers are recounted by SAT enumeration
 FLIP = {BEFORE: AFTER, AFTER: BEFORE, UNORDERED: UNORDERED}
 

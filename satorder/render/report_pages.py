@@ -192,12 +192,17 @@ def explain_report(expl, command: str | None = None) -> Report:
 
 def count_report(res, command: str | None = None) -> Report:
     """The page of ``satorder count``."""
-    from satorder.pipeline.count import DECOMPOSITION
+    from satorder.pipeline.count import APPROXIMATE, DECOMPOSITION
 
     p = res.problem
     status = FEASIBLE if res.count > 0 else INFEASIBLE if res.exact else UNKNOWN
-    how = "modular decomposition" if res.method == DECOMPOSITION else "SAT enumeration"
-    count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped at the {res.reason})")
+    how = {DECOMPOSITION: "modular decomposition", APPROXIMATE: "approximate model counting "
+           "(ApproxMC)"}.get(res.method, "SAT enumeration")
+    if res.method == APPROXIMATE:
+        count = f"about {res.count:,} ({res.to_json()['guarantee']})"
+    else:
+        count = f"{res.count:,}" + ("" if res.exact else
+                                    f" at least (stopped at the {res.reason})")
     r = Report("satorder count", command).header(
         p.source, _size(p), status, [("answers", count), ("method", how),
                                      ("verified", _verified(res.verified))])

@@ -14,8 +14,8 @@ of up to a few hundred items.
 
 >>> from satorder.model.problem import Problem
 >>> f = AnswerFormula(Problem.from_lists(items=["a", "b"], incomparable=[]))   # one open pair
->>> len(f.projection), f.clauses                 # a<b, b<a, never both: 3 answers
-(2, [[-1, -2]])
+>>> len(f.projection), f.free, f.clauses          # a<b, b<a, never both: 3 answers
+(2, [], [[-1, -2]])
 """
 
 from __future__ import annotations
@@ -25,9 +25,11 @@ from satorder.sat.encoding import Encoding
 
 
 class AnswerFormula:
-    """``clauses`` over variables ``1 … nv``; ``projection`` the order variables; ``decode``
-    turns a model (or a sample over the projection) into successor sets; ``unsat`` is True when
-    the encoding already holds the empty clause."""
+    """``clauses`` over variables ``1 … nv``; ``projection`` the order variables that occur in
+    some clause and ``free`` those that occur in none (each doubles the answers: counters and
+    samplers take only variables of the clauses); ``decode`` turns a model (or a sample over
+    the projection) into successor sets; ``unsat`` is True when the encoding already holds the
+    empty clause."""
 
     def __init__(self, problem: Problem):
         enc = Encoding(problem)
@@ -44,7 +46,9 @@ class AnswerFormula:
         self.enc = enc
         self.clauses = enc.hard
         self.nv = enc.nv
-        self.projection = list(range(1, enc.nv + 1))
+        used = {abs(lit) for clause in enc.hard for lit in clause}
+        self.projection = [v for v in range(1, enc.nv + 1) if v in used]
+        self.free = [v for v in range(1, enc.nv + 1) if v not in used]
         self.unsat = any(not c for c in enc.hard)
 
     def decode(self, model) -> list[set[int]]:

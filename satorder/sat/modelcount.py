@@ -46,6 +46,7 @@ class ApproxCount:
     seed: int
     cells: int = 0
     hashes: int = 0
+    free: int = 0  # order variables in no clause: each doubles the count exactly
     seconds: float = 0.0
 
     @property
@@ -63,8 +64,9 @@ def approximate_count(formula: AnswerFormula, epsilon: float = EPSILON, delta: f
     if formula.unsat:
         out.estimate = 0
         return out
-    if not formula.projection:  # no variable: the one answer orders nothing
-        out.estimate, out.cells = 1, 1
+    out.free = len(formula.free)
+    if not formula.projection:  # every variable free: 2^free answers
+        out.estimate, out.cells = 2 ** out.free, 1
         return out
 
     def call():
@@ -81,5 +83,5 @@ def approximate_count(formula: AnswerFormula, epsilon: float = EPSILON, delta: f
         return out
     cells, hashes = result
     out.cells, out.hashes = int(cells), int(hashes)
-    out.estimate = out.cells * 2 ** out.hashes
+    out.estimate = out.cells * 2 ** (out.hashes + out.free)
     return out

@@ -16,6 +16,11 @@ answers fit in one cell they are drawn exactly uniformly).  The same seed gives 
 samples.  UniGen cannot be interrupted, so it runs in a forked child process
 (:mod:`satorder.sat.forked`) that a deadline or Ctrl-C ends.
 
+Samples are drawn in runs of :data:`CHUNK` from a fresh sampler each (seeded from the seed and
+the run's number): one sampler's cost per sample grows with the samples it has already drawn
+(measured here on the 219 answers of four items with every pair open: 50 samples 0.47 s,
+400 samples 8.4 s from one sampler), and separate runs are independent draws all the same.
+
 >>> from satorder.model.problem import Problem
 >>> from satorder.sat.answer_formula import AnswerFormula
 >>> f = AnswerFormula(Problem.from_lists(items=["a", "b"], incomparable=[]))
@@ -29,6 +34,7 @@ from satorder.sat.answer_formula import AnswerFormula
 from satorder.sat.forked import run_forked
 
 KAPPA = 0.638  # UniGen's default uniformity parameter
+CHUNK = 50  # samples drawn from one sampler before a fresh one takes over
 
 
 def uniformity_epsilon(kappa: float = KAPPA) -> float:
@@ -45,21 +51,32 @@ def almost_uniform_samples(formula: AnswerFormula, k: int, seed: int = 1,
         return []
     if formula.unsat:
         raise ValueError("the formula has no answer to sample")
+    import random
+
+    coin = random.Random(seed)  # order variables in no clause are fair coins
+
+    def with_free(sample: list[int]) -> list[int]:
+        return list(sample) + [v if coin.random() < 0.5 else -v for v in formula.free]
+
     if not formula.projection:
-        return [[set() for _ in range(formula.problem.n)] for _ in range(k)]
+        return [formula.decode(with_free([])) for _ in range(k)]
 
     def call():
         import pyunigen
 
-        sampler = pyunigen.Sampler(seed=seed, kappa=kappa)
-        for clause in formula.clauses:
-            sampler.add_clause(clause)
-        _, _, samples = sampler.sample(num=k, sampling_set=formula.projection)
-        return samples
+        out = []
+        for run in range((k + CHUNK - 1) // CHUNK):
+            sampler = pyunigen.Sampler(seed=seed * 7919 + run, kappa=kappa)
+            for clause in formula.clauses:
+                sampler.add_clause(clause)
+            want = min(CHUNK, k - len(out))
+            _, _, samples = sampler.sample(num=want, sampling_set=formula.projection)
+            if len(samples) < want:
+                raise RuntimeError(f"the sampler returned {len(samples)} of {want} samples")
+            out += samples[:want]
+        return out
 
     samples, stopped = run_forked(call, deadline)
     if stopped:
         return None
-    if len(samples) < k:
-        raise RuntimeError(f"the sampler returned {len(samples)} of {k} samples")
-    return [formula.decode(s) for s in samples[:k]]
+    return [formula.decode(with_free(s)) for s in samples]
