@@ -47,7 +47,7 @@ def check_against_brute(problem, res, ans, share, tolerance=1e-9):
     orderable = {frozenset((a, b)) for a, b in itertools.combinations(range(problem.n), 2)
                  if not problem.must_be_unordered(a, b)}
     assert set(listed) == orderable
-    for a, b, x, y, z, s in listed.values():
+    for a, b, x, y, _z, s in listed.values():
         bx, by = share[(a, b)], share[(b, a)]
         assert abs(x - bx) <= tolerance and abs(y - by) <= tolerance, (a, b, x, y, bx, by)
         # settled is exact in every method: one relation in every answer
