@@ -22,8 +22,12 @@ class UsageError(InputError):
 
 
 def load(path: str):
-    """Read a problem file; errors surface as InputError (exit 2)."""
-    return read_problem(path)
+    """Read a problem file; errors surface as InputError (exit 2).  The reader's notes (such as
+    repeated requirements merged) are printed once on standard error."""
+    problem = read_problem(path)
+    for note in problem.notes:
+        err.print(f"note: {note}", markup=False)
+    return problem
 
 
 def dumps(doc) -> str:

@@ -66,5 +66,24 @@ def run(args) -> int:
         sys.stdout.write(text)
         sys.stdout.flush()
     else:
-        print_answer(ans, out, hint_file=args.file)
+        admitted = _admitted(problem, args.file) if ans.feasible else None
+        print_answer(ans, out, hint_file=args.file, admitted=admitted)
     return 3 if ans.status == UNKNOWN else 0
+
+
+def _admitted(problem, file: str) -> str:
+    """One line: how many orders the requirements admit, when that is cheap to know (counted
+    by modular decomposition and checked), or that other answers may exist."""
+    from satorder.pipeline.count import answers_admitted
+
+    res = answers_admitted(problem)
+    hard = "hard requirements" if problem.prefer else "requirements"
+    if res is None:
+        why = (f" ({problem.num_open} pairs are open)" if problem.has_open_pairs else "")
+        return (f"Other orders may also meet the {hard}{why}; satorder count {file} says how "
+                "many.")
+    if res.count == 1:
+        return f"This is the only order the {hard} admit (counted by modular decomposition, " \
+               "checked)."
+    return (f"The {hard} admit {res.count:,} orders; this is one of them (counted by modular "
+            f"decomposition, checked; satorder orders {file} lists them).")

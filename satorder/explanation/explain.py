@@ -5,9 +5,11 @@ change?":
 
 * **core** — a minimal infeasible subset of the requirements (every other requirement dropped,
   unnamed pairs open; dropping any one member makes it feasible), found by deletion-based MUS
-  extraction (:mod:`satorder.sat.mus`).  For problems whose non-comparable pairs must all stay
-  unordered, the search starts from the forcing chain of a minimal obstruction, so only the
-  unordered pairs that justify forcing steps ever get a selector — never one per non-edge.
+  extraction (:mod:`satorder.sat.mus`); two requirements that clash on one pair
+  (:meth:`~satorder.model.problem.Problem.contradictions`) are such a core at once.  For
+  problems whose non-comparable pairs must all stay unordered, the search starts from the
+  forcing chain of a minimal obstruction, so only the unordered pairs that justify forcing
+  steps ever get a selector — never one per non-edge.
 * **obstruction** — when the comparable pairs alone admit no order: a minimal set of items whose
   induced subgraph has no transitive orientation (:mod:`satorder.graph.obstruction`).
 * **derivation** — numbered steps from the core to a contradiction
@@ -46,6 +48,7 @@ from satorder.explanation.repairs import (
     _closure,
     _local_repairs,
     _verify_small_repair,
+    repair_text,
 )
 from satorder.explanation.requirements import requirements
 from satorder.graph.forcing import ForcingResult, transitive_orientation
@@ -65,6 +68,7 @@ from satorder.model.requirement import (
     Status,
     items_of,
 )
+from satorder.model.wording import requirement_text
 from satorder.sat.mus import (
     RequirementOracle,
     core_oracle,
@@ -112,7 +116,10 @@ class Explanation:
         return self.problem.to_networkx().subgraph(names[v] for v in self.obstruction).copy()
 
     def core_json(self) -> list[dict]:
-        return [r.to_json(self.problem.items) for r in self.core or []]
+        """The core's members: ``{"kind", "pair", "text"}`` (``text`` in the one wording)."""
+        names = self.problem.items
+        return [{**r.to_json(names), "text": requirement_text(r, names)}
+                for r in self.core or []]
 
     def derivation_json(self) -> list[dict] | None:
         if self.steps is None:
@@ -135,6 +142,7 @@ class Explanation:
             doc["repairs"] = [
                 {
                     "drop": [r.to_json(names) for r in rep.drop],
+                    "text": repair_text(rep.drop, names),
                     "order": None if rep.succ is None else
                     [[names[a], names[b]] for a, s in enumerate(rep.succ) for b in sorted(s)],
                     "verified": rep.verified,
@@ -239,7 +247,10 @@ def explain(
     core: list[Requirement] | None = None
     core_witnesses = None
 
-    if problem.incomparable is None:
+    clash = problem.contradictions()
+    if clash:  # two requirements clash on one pair: they are a minimal core already
+        core = list(clash[0])
+    elif problem.incomparable is None:
         say("forcing")
         res = forcing_result or transitive_orientation(problem.adj)
         stats["forcing_seconds"] = round(time.perf_counter() - t0, 6)

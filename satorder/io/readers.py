@@ -116,6 +116,8 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
         raise InputError(f'{source}: "items" must be a list of item names')
     for k, name in enumerate(items):
         b.item(_name(name, f"items[{k}]", source), f"items[{k}]")
+    if "items" in doc:  # an explicit list: every name used elsewhere must be in it
+        b.close_items()
     for a, c, where in _pairs(doc, "comparable", source):
         b.comparable(a, c, where)
     incomp = doc.get("incomparable", "others")
@@ -210,7 +212,23 @@ def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
     adj = [set(dst_l[s:e]) for s, e in zip(starts, ends)]
     p = Problem(items=items, adj=adj, source=source)
     p._index = index
+    repeats = len(a) - p.num_comparable
+    if repeats:
+        p.notes.append(_repeat_note(text, a, b, n, repeats, source))
     return p
+
+
+def _repeat_note(text: str, a: np.ndarray, b: np.ndarray, n: int, repeats: int,
+                 source: str) -> str:
+    """The note for pairs given more than once in an edge list (either way round), naming the
+    first repeat and the line it repeats."""
+    keys = np.minimum(a, b) * n + np.maximum(a, b)
+    _, first, inverse = np.unique(keys, return_index=True, return_inverse=True)
+    k = int(np.flatnonzero(first[inverse] != np.arange(len(keys)))[0])
+    line, earlier = _line_of_pair(text, k), _line_of_pair(text, int(first[inverse[k]]))
+    s = "s" if repeats > 1 else ""
+    return (f"{source}: {repeats} repeated pair{s} merged, each counted once (line {line} "
+            f"repeats line {earlier}{' and more' if repeats > 1 else ''})")
 
 
 def _fields_per_line(text: str, tokens: list[str]) -> np.ndarray:

@@ -21,7 +21,9 @@ Two methods, and the result says which one was used:
   (:mod:`satorder.pipeline.orders`); with ``limit`` or
   ``time_limit`` reached first, the count is a lower bound (``exact`` is False).
 
-Preferences rank answers but rule none out, so they do not change the count.
+Preferences rank answers but rule none out, so they do not change the count.  Requirements
+that clash on one pair (:meth:`~satorder.model.problem.Problem.contradictions`) admit no answer:
+the count is 0 with no search (``stats["clash"]`` names the two), cross-checked like any other.
 
 >>> from satorder.model.problem import Problem
 >>> count_answers(Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")])).count
@@ -108,6 +110,12 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
     t0 = time.perf_counter()
     if method == "auto":
         method = ENUMERATION if problem.has_open_pairs else DECOMPOSITION
+    clash = problem.contradictions()
+    if clash:  # two requirements clash on one pair: no answer at all
+        names = problem.items
+        return CountResult(problem, 0, True, method, stats={
+            "clash": [r.to_json(names) for r in clash[0]],
+            "seconds": round(time.perf_counter() - t0, 6)})
     if method == DECOMPOSITION:
         if problem.has_open_pairs:
             raise InputError(f"{problem.source}: has open pairs, which the decomposition "
@@ -265,6 +273,24 @@ def _prime_count(adj, node: ModuleNode, arcs) -> int:
     forward = all((i, j) in up for i, j in arcs)
     backward = all((j, i) in up for i, j in arcs)
     return int(forward) + int(backward)
+
+
+# ------------------------------------------------------------------------ alongside an answer
+CHEAP_PAIRS = 200_000  # comparable pairs up to which solve also counts its answers
+
+
+def answers_admitted(problem: Problem, cheap_pairs: int = CHEAP_PAIRS) -> CountResult | None:
+    """The number of answers, checked by :func:`check_count`, when it is cheap to know: no
+    open pairs (so the modular decomposition counts them) and at most ``cheap_pairs``
+    comparable pairs; otherwise ``None``.  ``solve`` prints it beside the order it found."""
+    if problem.has_open_pairs or problem.num_comparable > cheap_pairs:
+        return None
+    try:
+        res = _count_by_decomposition(problem)
+    except TooManyStates:
+        return None
+    check_count(res)
+    return res
 
 
 # ------------------------------------------------------------------------ independent check

@@ -46,10 +46,11 @@ Interface (stable; explain, count, MaxSAT and benchmark code build on it)
 * ``pair_literals()`` → ``(a, b, lit a<b, lit b<a)`` for every pair with variables;
   ``has_pair(a, b)``; ``num_classes`` → implication classes merged; ``phase_hints`` → preferred
   literals for a solver's phases (comparable pairs upwards by id, other pairs unordered).
-* ``unsat_reason`` → requirement keys of an implication class holding an arc and its reverse
-  (the CNF then holds the empty clause); ``origin[k]`` → why clause ``hard[k]`` is there;
-  ``requirements_behind(clause_ids)`` → requirements implying those clauses (cores without
-  selectors: see :mod:`satorder.sat`).
+* ``unsat_reason`` → requirement keys of an implication class holding an arc and its reverse,
+  or the two requirements of a clash on one pair (:meth:`Problem.contradictions`), when
+  selectors are off (the CNF then holds the empty clause); ``origin[k]`` → why clause
+  ``hard[k]`` is there; ``requirements_behind(clause_ids)`` → requirements implying those
+  clauses (cores without selectors: see :mod:`satorder.sat`).
 * ``to_dimacs()`` → DIMACS CNF text with ``c`` lines naming each variable and selector.
 
 >>> from satorder.model.problem import Problem
@@ -117,6 +118,12 @@ class Encoding:
         else:
             for a, b in problem.comparable_pairs():
                 self._make_pair(a, b)
+        if not selectors:
+            clash = problem.contradictions()
+            if clash:  # two requirements clash on one pair: no order, nothing to search
+                if self.unsat_reason is None:
+                    self.hard.append([])
+                self.unsat_reason = list(clash[0])
         for a, b in problem.fixed:
             lit = self.lt(a, b)
             if self.selectors:
@@ -174,7 +181,8 @@ class Encoding:
         p = self.problem
         key = a * self.n + b
         comparable = b in p.adj[a]
-        unordered = not comparable and p.must_be_unordered(a, b)
+        # with selectors a pair may be both (a clash, to be named by a core)
+        unordered = p.must_be_unordered(a, b) and (self.selectors or not comparable)
         if unordered and not self.selectors:
             return None
         if comparable and not self.selectors:
@@ -188,7 +196,7 @@ class Encoding:
             self.phase_hints += [up, -down] if comparable else [-up, -down]
             if comparable:
                 self.hard.append([-self.selector(Kind.COMPARABLE, (a, b)), up, down])
-            elif unordered:
+            if unordered:
                 s = self.selector(Kind.INCOMPARABLE, (a, b))
                 self.hard.append([-s, -up])
                 self.hard.append([-s, -down])

@@ -167,7 +167,7 @@ def test_measure_cli_json_with_weights(tmp_path):
     doc = {
         "comparable": [["sift", "knead"], ["knead", "bake"], ["sift", "bake"],
                        ["proof", "bake"], ["proof", "knead"]],
-        "items": ["glaze"],
+        "items": ["sift", "knead", "bake", "proof", "glaze"],
         "weights": {"glaze": 7, "sift": 2},
     }
     f = tmp_path / "bakery.json"
