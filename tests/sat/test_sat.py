@@ -160,7 +160,7 @@ def test_hypothesis_side_constraints_match_brute_force(data):
         try:
             (b.fixed if fix else b.forbidden)(names[x], names[y], "arc")
         except InputError:
-            pass  # e.g. an arc from an item to itself, or on a pair that must stay unordered
+            pass  # an arc from an item to itself; clashes with the pairs are kept
     p = b.build()
     _agree(p, brute_force_feasible(p))
 
