@@ -101,7 +101,7 @@ class Answer:
         rest = json.dumps(doc, separators=(",", ":"))[1:]
         # --- views of the order (levels, covering, sequence): see satorder.model.order_views
         views = order_views.views_json(self.succ, q)
-        return head + ',"order":[' + ",".join(parts) + "]," + views + "," + rest + "\n"
+        return "".join((head, ',"order":[', ",".join(parts), "],", views, ",", rest, "\n"))
 
     def to_json(self, include_order: bool = True) -> dict[str, Any]:
         """The machine-readable answer (fields fixed by the CLI contract, extras welcome).
