@@ -33,7 +33,6 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-
 ARRAYS_FROM = 20_000  # ordered pairs from which numpy/scipy compute the views
 
 
