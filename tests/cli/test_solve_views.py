@@ -100,11 +100,16 @@ def test_views_of_small_orders_by_hand():
         levels([{1}, {0}])
 
 
-def test_views_match_networkx_on_random_orders():
+@pytest.mark.parametrize("arrays", [False, True], ids=["python", "arrays"])
+def test_views_match_networkx_on_random_orders(arrays, monkeypatch):
+    # both ways of computing the views: pure Python for small orders, numpy/scipy for large
     import random
 
     from order_reference import random_order
 
+    from satorder.model import order_views
+
+    monkeypatch.setattr(order_views, "ARRAYS_FROM", 0 if arrays else 10 ** 12)
     rng = random.Random(5)
     for _ in range(40):
         n = rng.randint(1, 25)
@@ -117,3 +122,12 @@ def test_views_match_networkx_on_random_orders():
         assert sorted(seq) == list(range(n))
         at = {x: k for k, x in enumerate(seq)}
         assert all(at[a] < at[b] for a, b in g.edges())
+        longest = {}
+        for x in nx.topological_sort(g):
+            longest[x] = 1 + max((longest[y] for y in g.predecessors(x)), default=0)
+        assert [longest[x] for x in range(n)] == order_views.level_numbers(succ)
+        quoted = [f'"i{k}"' for k in range(n)]
+        doc = json.loads("{" + order_views.views_json(succ, quoted) + "}")
+        assert doc["sequence"] == [f"i{k}" for k in seq]
+        assert {tuple(p) for p in doc["covering"]} == {
+            (f"i{a}", f"i{b}") for a, b in nx.transitive_reduction(g).edges()}
