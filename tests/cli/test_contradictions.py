@@ -17,7 +17,7 @@ from order_reference import brute_count, brute_force_feasible
 from satorder import certify
 from satorder.certify.derivation import check_derivation
 from satorder.cli.main import main
-from satorder.errors import CertificateError
+from satorder.errors import CertificateError, InputError
 from satorder.io.readers import problem_from_dict
 from satorder.model.requirement import Requirement
 from satorder.pipeline.count import check_count, count_answers
@@ -101,10 +101,22 @@ def test_each_clash_in_the_python_api(clash):
     for engine in ("auto", "sat"):
         ans = solve(p, engine=engine)
         assert ans.status == "infeasible" and ans.verified and len(ans.core) == 2
+    from satorder.explanation.requirements import requirements
     from satorder.sat.cores import find_core
+    from satorder.sat.mus import RequirementOracle, SessionOracle, minimal_core
 
     core, stats = find_core(p)
     assert stats["minimal"] and set(core) == {first, second}
+    # both feasibility oracles of the minimal-core search see the clash as a core
+    reqs = requirements(p)
+    for oracle in (RequirementOracle(reqs), SessionOracle(reqs)):
+        with oracle:
+            found = {reqs[k] for k in minimal_core(oracle, range(len(reqs)))}
+        assert found == {first, second}
+    # not a plain problem: the forcing engine declines it, and auto picks SAT
+    assert not p.is_plain
+    with pytest.raises(InputError, match="plain problems only"):
+        solve(p, engine="forcing")
     # preferences do not hide the clash (MaxSAT's hard part is refuted first)
     wished = p.with_requirements(prefer=[(p.index["weir"], p.index["kiln"], 2)])
     assert solve(wished).status == "infeasible"
