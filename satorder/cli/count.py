@@ -116,7 +116,16 @@ def run(args) -> int:
         return 0
     how = {DECOMPOSITION: "by modular decomposition", ENUMERATION: "by SAT enumeration"}
     text = f"{res.count:,}"
-    if res.exact:
+    clash = res.stats.get("clash")
+    if clash:
+        from satorder.model.requirement import Requirement
+        from satorder.model.wording import requirement_text
+
+        words = [requirement_text(Requirement.from_json(r, problem.index), problem.items)
+                 for r in clash]
+        out.print(f"[bold]0[/] answers (exact): two requirements clash on one pair — "
+                  f"{words[0]}; {words[1]}. Run satorder explain {args.file} for repairs.")
+    elif res.exact:
         out.print(f"[bold]{text}[/] answers ({how[res.method]}, exact).")
     else:
         out.print(f"[bold]at least {text}[/] answers ({how[res.method]}; stopped at the "

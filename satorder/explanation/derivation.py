@@ -313,7 +313,8 @@ def describe(step: Step, core: list[Requirement], names: list[str]) -> tuple[str
     elif step.rule == "antisymmetry":
         why = f"antisymmetry: steps {s[0]} and {s[1]} order the same pair both ways"
     elif step.rule == "unordered":
-        why = f"step {s[0]} orders a pair against {req(step.requirements[0])}"
+        a, b = (names[v] for v in core[step.requirements[0]].pair)
+        why = f"step {s[0]} orders {a} and {b}, against {req(step.requirements[0])}"
     elif step.rule == "forbidden":
         why = f"step {s[0]} is ruled out by {req(step.requirements[0])}"
     else:

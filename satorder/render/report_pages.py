@@ -199,7 +199,17 @@ def count_report(res, command: str | None = None) -> Report:
     r = Report("satorder count", command).header(
         p.source, _size(p), status, [("answers", count), ("method", how),
                                      ("verified", _verified(res.verified))])
-    r.section("How many orders", f"{count} orders meet every requirement, counted by {how}.")
+    clash = res.stats.get("clash")
+    if clash:
+        from satorder.model.requirement import Requirement
+
+        words = "; ".join(requirement_text(Requirement.from_json(c, p.index), p.items)
+                          for c in clash)
+        r.section("How many orders", f"No order meets every requirement: two requirements "
+                  f"clash on one pair — {words}. satorder explain shows repairs.")
+    else:
+        r.section("How many orders",
+                  f"{count} orders meet every requirement, counted by {how}.")
     nodes = res.stats.get("nodes")
     if nodes:
         r.table(["node kind", "count"], sorted(nodes.items()), numeric={"count"},
