@@ -276,7 +276,7 @@ def _prime_count(adj, node: ModuleNode, arcs) -> int:
 
 
 # ------------------------------------------------------------------------ alongside an answer
-CHEAP_PAIRS = 200_000  # comparable pairs up to which solve also counts its answers
+CHEAP_PAIRS = 50_000  # comparable pairs up to which solve also counts its answers
 
 
 def answers_admitted(problem: Problem, cheap_pairs: int = CHEAP_PAIRS) -> CountResult | None:
