@@ -197,7 +197,7 @@ def count_report(res, command: str | None = None) -> Report:
     p = res.problem
     status = FEASIBLE if res.count > 0 else INFEASIBLE if res.exact else UNKNOWN
     how = "modular decomposition" if res.method == DECOMPOSITION else "SAT enumeration"
-    count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped at the {res.reason})")
+    count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped: {res.reason})")
     r = Report("satorder count", command).header(
         p.source, _size(p), status, [("answers", count), ("method", how),
                                      ("verified", _verified(res.verified))])
