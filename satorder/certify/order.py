@@ -20,12 +20,16 @@ import numpy as np
 from satorder.errors import CertificateError
 from satorder.jit import HAVE_NUMBA, run
 
+# from this many ordered pairs the check runs compiled; below, the plain loop takes
+# milliseconds while loading numba takes about a second
+COMPILED_FROM = 20_000
+
 
 def _first_intransitive(succ: list[set[int]]):
     """``(a, a, a)`` for an item above itself, ``(a, b, c)`` for ``a < b < c`` without
     ``a < c``, or ``None``.  Successor-set inclusion, compiled when numba is present."""
     n = len(succ)
-    if HAVE_NUMBA and n > 64:
+    if HAVE_NUMBA and sum(map(len, succ)) >= COMPILED_FROM:
         deg = np.fromiter((len(s) for s in succ), dtype=np.int64, count=n)
         indptr = np.zeros(n + 1, dtype=np.int64)
         np.cumsum(deg, out=indptr[1:])

@@ -47,6 +47,15 @@ from satorder.graph import kernels as _kernels
 
 Arc = tuple[int, int]
 CHAIN_TRIES = 8  # conflicting edges tried as chain starts; the shortest chain is kept
+# below this many comparable pairs the pure-Python twins of the kernels run: they take
+# milliseconds there, while loading numba and its compiled kernels takes about a second
+KERNELS_FROM = 20_000
+
+
+def use_kernels(pairs: int) -> bool:
+    """Whether the compiled kernels pay off for a graph with ``pairs`` edges (numba present and
+    the graph at least :data:`KERNELS_FROM` edges); small problems never load numba."""
+    return _kernels.HAVE_NUMBA and pairs >= KERNELS_FROM
 
 
 @dataclass
@@ -135,9 +144,10 @@ def gamma_steps(adj: list[set[int]], unordered: list[set[int]] | None = None,
                 compiled: bool | None = None):
     """Arrays (v, y, x), one row per spanning Γ step around each item v: arcs at v of edges
     {v, y} and {v, x} are oriented alike because {y, x} must stay unordered (every non-adjacent
-    pair, or only the pairs of ``unordered``).  Compiled kernel when numba is available."""
+    pair, or only the pairs of ``unordered``).  Compiled kernel when numba is available and
+    the graph is large enough (:func:`use_kernels`), unless ``compiled`` says otherwise."""
     if compiled is None:
-        compiled = _kernels.HAVE_NUMBA
+        compiled = use_kernels(sum(map(len, adj)) // 2)
     if compiled:
         indptr, indices = _kernels.csr(adj)
         if unordered is None:
@@ -175,7 +185,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     if m == 0:
         return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
-    ncomp, comp = _components(m, e1, e2, fl)
+    ncomp, comp = tie_components(m, e1, e2, fl)
     c0 = comp[0::2]
     c1 = comp[1::2]
     bad = np.flatnonzero(c0 == c1)
@@ -202,13 +212,39 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     return ForcingResult(n, True, lo, hi, up, ncomp // 2, None)
 
 
-def _components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
-    """Components of the doubled tie graph: compiled union-find, or scipy without numba."""
-    if _kernels.HAVE_NUMBA:
+def tie_components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
+    """Components of the doubled tie graph (node ``2e`` edge e as lo→hi, ``2e+1`` its
+    reverse): ``(count, label of each node)``.  Compiled union-find on large graphs, its
+    pure-Python twin on small ones, scipy on large graphs without numba."""
+    if use_kernels(m):
         return _kernels.doubled_components(m, e1, e2, fl)
+    if m < KERNELS_FROM:
+        return _doubled_components_py(m, e1.tolist(), e2.tolist(), fl.tolist())
     from scipy.sparse.csgraph import connected_components
 
     return connected_components(tie_graph(m, e1, e2, fl), directed=False)
+
+
+
+def _doubled_components_py(m: int, e1: list[int], e2: list[int], flip: list[int]):
+    """Pure-Python twin of :func:`satorder.graph.kernels.doubled_components` (the tests
+    compare the two): union-find with path halving, labels 0..k-1 in order of first node."""
+    parent = list(range(2 * m))
+
+    def find(x: int) -> int:
+        while parent[x] != x:
+            parent[x] = parent[parent[x]]
+            x = parent[x]
+        return x
+
+    for i, j, f in zip(e1, e2, flip):
+        for a, b in ((2 * i, 2 * j + f), (2 * i + 1, 2 * j + 1 - f)):
+            ra, rb = find(a), find(b)
+            if ra != rb:
+                parent[max(ra, rb)] = min(ra, rb)
+    label: dict[int, int] = {}
+    comp = [label.setdefault(find(x), len(label)) for x in range(2 * m)]
+    return len(label), np.asarray(comp, dtype=np.int64)
 
 
 def tie_graph(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):

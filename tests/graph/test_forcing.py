@@ -133,7 +133,7 @@ def test_compiled_union_find_matches_scipy_components():
     from scipy.sparse.csgraph import connected_components
 
     from satorder.graph import kernels as _kernels
-    from satorder.graph.forcing import tie_graph
+    from satorder.graph.forcing import _doubled_components_py, tie_graph
 
     rnd = np.random.default_rng(3)
     for _ in range(30):
@@ -145,3 +145,6 @@ def test_compiled_union_find_matches_scipy_components():
         _, ref = connected_components(tie_graph(m, e1, e2, fl), directed=False)
         pairs = set(zip(ours.tolist(), ref.tolist()))
         assert len(pairs) == len(set(ours.tolist())) == len(set(ref.tolist()))
+        # the pure-Python twin (small graphs) labels exactly as the kernel does
+        count, twin = _doubled_components_py(m, e1.tolist(), e2.tolist(), fl.tolist())
+        assert twin.tolist() == ours.tolist() and count == len(set(ours.tolist()))
