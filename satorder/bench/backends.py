@@ -126,7 +126,7 @@ def execute(task: dict) -> dict:
     except InputError as exc:
         row.update(status="error", error=f"cannot read: {exc}", peak_mb=_peak_mb_self())
         return row
-    row["items"] = problem.n
+    row["item_count"] = problem.n
     row["comparable_pairs"] = problem.num_comparable
     row["read_seconds"] = round(time.perf_counter() - t_start, 6)
     backend = task["backend"]

@@ -65,7 +65,7 @@ def run(args) -> int:
                     time_limit=args.time_limit)
     if not ans.feasible:
         doc = {"status": ans.status, "height": None, "width": None, "dimension": None,
-               "items": problem.n}
+               "item_count": problem.n}
         if args.out:
             atomic_write(args.out, dumps(doc))
         if args.report:

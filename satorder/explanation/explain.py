@@ -155,7 +155,7 @@ class Explanation:
             ]
         if self.notes:
             doc["notes"] = self.notes
-        doc["items"] = self.problem.n
+        doc["item_count"] = self.problem.n
         doc["comparable_pairs"] = self.problem.num_comparable
         doc["verified"] = self.verified
         doc["stats"] = self.stats

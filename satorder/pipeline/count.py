@@ -86,7 +86,7 @@ class CountResult:
             doc["stopped"] = self.reason
         if self.problem.prefer:
             doc["note"] = "preferences rank answers but rule none out; they are not counted"
-        doc["items"] = self.problem.n
+        doc["item_count"] = self.problem.n
         doc["comparable_pairs"] = self.problem.num_comparable
         doc["verified"] = self.verified
         doc["stats"] = self.stats

@@ -251,7 +251,7 @@ def bench_report(rows, backends, summary, series, problems, unverified, timeout,
     r.table(["instance", "back end", "status", "seconds", "verified", "items",
              "comparable pairs", "peak MB"],
             [(row["instance"], row["backend"], row.get("status"), row.get("seconds"),
-              "yes" if row.get("verified") else "no", row.get("items"),
+              "yes" if row.get("verified") else "no", row.get("item_count"),
               row.get("comparable_pairs"), row.get("peak_mb"))
              for row in sorted(rows, key=lambda x: (x["instance"], x["backend"]))],
             numeric={"seconds", "items", "comparable pairs", "peak MB"}, limit=5000)
