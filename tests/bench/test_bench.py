@@ -178,7 +178,8 @@ def test_cli_runs_resumes_and_plots(tmp_path, capsys):
     args = ["bench", str(d), "--backend", "forcing", "bench_plugins:raises", "--timeout", "20",
             "--jobs", "2", "--out", str(out), "--plot", str(png)]
     assert main(args) == 1  # the back end that raises gives rows with status error: exit 1
-    assert "5 runs ended in error or crash" in capsys.readouterr().err
+    printed = capsys.readouterr()
+    assert "5 runs ended in error or crash" in printed.err
     rows = _rows(out)
     keys = [(r["instance"], r["backend"]) for r in rows]
     assert len(keys) == len(set(keys)) == 10
@@ -186,7 +187,7 @@ def test_cli_runs_resumes_and_plots(tmp_path, capsys):
     assert by[(SIDE, "forcing")]["status"] == "skipped"
     assert by[(PLAIN[3], "forcing")]["status"] == "infeasible"
     assert png.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
-    table = capsys.readouterr().out
+    table = printed.out
     assert "forcing" in table and "solved" in table
     before = out.read_text()
     assert main(args[:-2]) == 1  # nothing left: no run repeated (and no second plot)
