@@ -20,7 +20,7 @@ from satorder.sat.encoding import Encoding
 def add_parser(sub):
     p = sub.add_parser("cnf", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
-    options.add_out(p, "the CNF goes there instead of standard output")
+    options.add_out(p, "the CNF, instead of standard output")
     p.add_argument("--selectors", action="store_true",
                    help="give each requirement its own selector variable (no class merging)")
     return p

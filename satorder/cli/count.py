@@ -63,7 +63,7 @@ def add_parser(sub):
     p = sub.add_parser("count", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     options.add_json(p)
-    options.add_out(p, "the JSON result")
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--method", choices=("auto", DECOMPOSITION, ENUMERATION), default="auto",
                    help="modular decomposition (problems without open pairs), enumeration by "
                         "SAT with blocking clauses, or auto (default)")

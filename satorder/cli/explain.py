@@ -31,7 +31,7 @@ def add_parser(sub):
     p = sub.add_parser("explain", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     options.add_json(p)
-    options.add_out(p, "the JSON explanation")
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--smallest", action="store_true",
                    help="look for a core with the fewest requirements (small problems)")
     p.add_argument("--repairs", type=int, default=0, metavar="K",

@@ -33,7 +33,7 @@ def add_parser(sub):
     p = sub.add_parser("measure", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     options.add_json(p)
-    options.add_out(p, "the JSON figures")
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--draw", metavar="FILE.svg",
                    help="draw the Hasse diagram to FILE.svg (a summary by level above 150 items; "
                         "for dimension 2 also a dominance drawing to FILE-dominance.svg)")

@@ -17,7 +17,7 @@ import math
 # the first words of each shared option's help, the same in every command
 MEANING = {
     "--json": "print one JSON object on standard output (the contract in docs/cli.md)",
-    "--out": "also write the result to FILE (a whole file or none)",
+    "--out": "write the result to FILE, a whole file or none",
     "--time-limit": "stop after SECONDS and print what was found so far (exit 3 when "
                     "incomplete)",
     "--solver": "SAT back end, a python-sat solver name (default cadical195)",
@@ -48,7 +48,8 @@ def add_json(parser, extra: str | None = None) -> None:
 
 
 def add_out(parser, extra: str | None = None, metavar: str = "FILE", required: bool = False):
-    """``--out FILE``: the command's result also (or instead, where said) written to FILE."""
+    """``--out FILE``: the command's result written to FILE (besides, or instead of, what is
+    printed: ``extra`` says which)."""
     parser.add_argument("--out", metavar=metavar, required=required,
                         help=_help("--out", extra))
 

@@ -21,7 +21,7 @@ def add_parser(sub):
     p = sub.add_parser("orders", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     options.add_json(p, "the output is JSON lines with or without it")
-    options.add_out(p, "the same JSON lines, written whole when the listing ends")
+    options.add_out(p, "the same JSON lines as printed, written when the listing ends")
     p.add_argument("--limit", type=int, default=None, metavar="N",
                    help="stop after N answers")
     options.add_time_limit(p, extra="the end line says so")

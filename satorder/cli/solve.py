@@ -24,7 +24,7 @@ def add_parser(sub):
     p = sub.add_parser("solve", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     options.add_json(p)
-    options.add_out(p, "the JSON answer")
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--engine", choices=ENGINES, default="auto",
                    help="forcing (plain problems), sat, both (cross-check), auto (default)")
     options.add_solver(p)
