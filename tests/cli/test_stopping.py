@@ -27,12 +27,15 @@ def _problem(tmp_path, doc=MANY, name="many.json"):
     return str(path)
 
 
+# the command line as `satorder` runs it, with Python's Ctrl-C handler installed even when this
+# test runner was started with SIGINT ignored (a child would then inherit "ignore")
+_CHILD = ("import signal, sys\nsignal.signal(signal.SIGINT, signal.default_int_handler)\n"
+          "from satorder.cli.main import main\nsys.exit(main(sys.argv[1:]))\n")
+
+
 def _start(args, **kw):
-    """The command in its own process, with Ctrl-C handled as in a terminal (the default
-    SIGINT handler is restored in the child even when this test runner ignores SIGINT)."""
-    return subprocess.Popen([sys.executable, "-m", "satorder", *args], text=True,
-                            preexec_fn=lambda: signal.signal(signal.SIGINT, signal.SIG_DFL),
-                            **kw)
+    """The command in its own process, Ctrl-C handled as in a terminal."""
+    return subprocess.Popen([sys.executable, "-c", _CHILD, *args], text=True, **kw)
 
 
 def _wait_for(predicate, seconds=60.0):
