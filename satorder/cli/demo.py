@@ -22,8 +22,7 @@ from satorder.sat.direct import direct_encoding
 
 
 def add_parser(sub):
-    p = sub.add_parser("demo", help="solve small embedded examples and show the answers",
-                       description=__doc__)
+    p = sub.add_parser("demo", description=__doc__)
     p.add_argument("--pictures", metavar="DIR",
                    help="also write one picture of each kind and a report into DIR")
     return p

@@ -94,7 +94,7 @@ class Instance:
             "family": self.family,
             "seed": self.seed,
             "params": self.params,
-            "items": self.n,
+            "item_count": self.n,
             "comparable_pairs": self.num_pairs,
             "expected_status": self.expected_status,
             "expected_count": self.expected_count,

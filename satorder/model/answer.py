@@ -142,7 +142,7 @@ class Answer:
         if self.core is not None:
             doc["core"] = [{**r.to_json(names), "text": requirement_text(r, names)}
                            for r in self.core]
-        doc["items"] = p.n
+        doc["item_count"] = p.n  # not "items": in a problem file that is the list of names
         doc["comparable_pairs"] = p.num_comparable
         doc["verified"] = self.verified
         doc["stats"] = self.stats

@@ -19,7 +19,9 @@ Two methods, and the result says which one was used:
 * ``"enumeration"`` — problems with open pairs: every answer is produced by the SAT engine with
   blocking clauses (:mod:`satorder.sat.enumeration`) and certified
   (:mod:`satorder.pipeline.orders`); with ``limit`` or
-  ``time_limit`` reached first, the count is a lower bound (``exact`` is False).
+  ``time_limit`` reached first, or Ctrl-C, the count is a lower bound (``exact`` is False,
+  ``reason`` says which).  Listing is exponential work: :func:`enumeration_bound` gives, before
+  it starts, the most answers the problem can have.
 
 Preferences rank answers but rule none out, so they do not change the count.  Requirements
 that clash on one pair (:meth:`~satorder.model.problem.Problem.contradictions`) admit no answer:
@@ -35,6 +37,7 @@ the count is 0 with no search (``stats["clash"]`` names the two), cross-checked 
 
 from __future__ import annotations
 
+import math
 import time
 from dataclasses import dataclass, field
 from math import factorial
@@ -54,7 +57,7 @@ from satorder.graph.modular import (
 )
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
-from satorder.pipeline.orders import EnumerationEnd, certified_orders
+from satorder.pipeline.orders import INTERRUPTED, EnumerationEnd, certified_orders
 from satorder.pipeline.solve import solve
 
 DECOMPOSITION, ENUMERATION = "modular-decomposition", "enumeration"
@@ -85,7 +88,7 @@ class CountResult:
             doc["stopped"] = self.reason
         if self.problem.prefer:
             doc["note"] = "preferences rank answers but rule none out; they are not counted"
-        doc["items"] = self.problem.n
+        doc["item_count"] = self.problem.n
         doc["comparable_pairs"] = self.problem.num_comparable
         doc["verified"] = self.verified
         doc["stats"] = self.stats
@@ -98,12 +101,14 @@ class TooManyStates(RuntimeError):
 
 def count_answers(problem: Problem, limit: int | None = None, solver: str | None = None,
                   time_limit: float | None = None, method: str = "auto",
-                  on_progress=None) -> CountResult:
+                  on_progress=None, on_enumeration=None) -> CountResult:
     """Count the answers of ``problem``; see the module docstring for the two methods.
 
     ``method``: ``"auto"`` (decomposition when there are no open pairs), ``DECOMPOSITION`` or
     ``ENUMERATION``.  ``limit``/``time_limit`` bound the enumeration only.  ``on_progress(k)`` is
-    called as enumerated answers arrive.
+    called as enumerated answers arrive, ``on_enumeration(bound)`` once before listing starts
+    (``bound`` from :func:`enumeration_bound`).  Ctrl-C during the listing ends it: the result
+    is then a lower bound with ``reason`` ``"interrupted"``.
     """
     if method not in ("auto", DECOMPOSITION, ENUMERATION):
         raise ValueError(f"unknown counting method {method!r}")
@@ -128,21 +133,61 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
             res.stats["seconds"] = round(time.perf_counter() - t0, 6)
             return res
         method = ENUMERATION
+    if on_enumeration is not None:
+        on_enumeration(enumeration_bound(problem))
     res = _count_by_enumeration(problem, limit, solver, time_limit, on_progress)
     res.stats["seconds"] = round(time.perf_counter() - t0, 6)
     return res
 
 
 # ------------------------------------------------------------------------ enumeration
+def enumeration_bound(problem: Problem) -> float:
+    """log10 of the most answers ``problem`` can have, from the states each pair may take in an
+    answer (common practice, a plain product): a comparable pair is ordered one of 2 ways (1
+    when a fixed arc or a forbidden arc on it leaves one), an open pair is unordered or ordered
+    either way (3, or 2 with a forbidden arc), a pair that must stay unordered has 1 state.
+    Listing the answers one by one costs at least one SAT call per answer, so this bounds the
+    work.
+
+    >>> from satorder.model.problem import Problem
+    >>> round(10 ** enumeration_bound(Problem.from_lists(comparable=[("a", "b"), ("b", "c")])))
+    4
+    """
+    fixed = {frozenset(arc) for arc in problem.fixed}
+    banned = {frozenset(arc) for arc in problem.forbidden}
+    two = three = 0
+    for a in range(problem.n):
+        for b in problem.adj[a]:
+            if a < b and frozenset((a, b)) not in fixed and frozenset((a, b)) not in banned:
+                two += 1
+    if problem.incomparable is not None:
+        for a in range(problem.n):
+            for b in range(a + 1, problem.n):
+                if problem.is_open(a, b):
+                    if frozenset((a, b)) in banned:
+                        two += 1
+                    else:
+                        three += 1
+    return two * math.log10(2) + three * math.log10(3)
+
+
 def _count_by_enumeration(problem, limit, solver, time_limit, on_progress) -> CountResult:
     end = EnumerationEnd()
-    for found in certified_orders(problem, limit=limit, solver=solver, time_limit=time_limit,
-                                  end=end):
-        if on_progress is not None:
-            on_progress(found.index)
+    listed = 0
+    orders = certified_orders(problem, limit=limit, solver=solver, time_limit=time_limit,
+                              end=end)
+    try:
+        for found in orders:
+            listed += 1
+            if on_progress is not None:
+                on_progress(found.index)
+    except KeyboardInterrupt:  # stop with what was found: a lower bound
+        end.complete, end.reason = False, INTERRUPTED
+    finally:
+        orders.close()
     # every enumerated order passed certify.order.check_order; distinct by construction
-    return CountResult(problem, end.found, end.complete, ENUMERATION, reason=end.reason,
-                       stats={"enumerated": end.found}, verified=True)
+    return CountResult(problem, listed, end.complete, ENUMERATION, reason=end.reason,
+                       stats={"enumerated": listed}, verified=True)
 
 
 # ------------------------------------------------------------------------ decomposition
@@ -282,14 +327,17 @@ CHEAP_PAIRS = 50_000  # comparable pairs up to which solve also counts its answe
 def answers_admitted(problem: Problem, cheap_pairs: int = CHEAP_PAIRS) -> CountResult | None:
     """The number of answers, checked by :func:`check_count`, when it is cheap to know: no
     open pairs (so the modular decomposition counts them) and at most ``cheap_pairs``
-    comparable pairs; otherwise ``None``.  ``solve`` prints it beside the order it found."""
+    comparable pairs; otherwise ``None``.  ``solve`` prints it beside the order it found, so
+    the check is the one that loads no SAT solver: the solving engine agrees that an answer
+    exists and the decomposition tree passes its independent check (``satorder count``
+    recounts small counts by enumeration as well)."""
     if problem.has_open_pairs or problem.num_comparable > cheap_pairs:
         return None
     try:
         res = _count_by_decomposition(problem)
     except TooManyStates:
         return None
-    check_count(res)
+    check_count(res, recount_up_to=0)
     return res
 
 

@@ -44,8 +44,14 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
         console.print("No verdict within the limits.")
         return
     core = expl.core or []
-    console.print(f"\n[bold]Minimal core[/]: these {len(core)} requirements cannot all hold "
-                  "(on their own, every other pair left open); drop any one and the rest can.")
+    if getattr(expl, "minimal", True):
+        console.print(f"\n[bold]Minimal core[/]: these {len(core)} requirements cannot all "
+                      "hold (on their own, every other pair left open); drop any one and the "
+                      "rest can.")
+    else:
+        console.print(f"\n[bold]Core, not minimal[/]: these {len(core)} requirements cannot "
+                      "all hold (on their own, every other pair left open); shrinking stopped "
+                      "early, so some may be dropped.")
     print_core(core, names, console)
     if expl.obstruction is not None:
         console.print(

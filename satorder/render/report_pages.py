@@ -195,7 +195,7 @@ def count_report(res, command: str | None = None) -> Report:
     p = res.problem
     status = FEASIBLE if res.count > 0 else INFEASIBLE if res.exact else UNKNOWN
     how = "modular decomposition" if res.method == DECOMPOSITION else "SAT enumeration"
-    count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped at the {res.reason})")
+    count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped: {res.reason})")
     r = Report("satorder count", command).header(
         p.source, _size(p), status, [("answers", count), ("method", how),
                                      ("verified", _verified(res.verified))])
@@ -259,7 +259,7 @@ def bench_report(rows, backends, summary, series, problems, unverified, timeout,
     r.table(["instance", "back end", "status", "seconds", "verified", "items",
              "comparable pairs", "peak MB"],
             [(row["instance"], row["backend"], row.get("status"), row.get("seconds"),
-              "yes" if row.get("verified") else "no", row.get("items"),
+              "yes" if row.get("verified") else "no", row.get("item_count"),
               row.get("comparable_pairs"), row.get("peak_mb"))
              for row in sorted(rows, key=lambda x: (x["instance"], x["backend"]))],
             numeric={"seconds", "items", "comparable pairs", "peak MB"}, limit=5000)

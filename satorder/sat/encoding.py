@@ -66,9 +66,8 @@ from collections.abc import Iterable, Iterator
 from itertools import islice
 
 import numpy as np
-from scipy.sparse.csgraph import connected_components
 
-from satorder.graph.forcing import implication_ties, tie_graph
+from satorder.graph.forcing import implication_ties, tie_components, tie_graph
 from satorder.model.problem import Problem
 from satorder.model.requirement import Kind, Requirement
 from satorder.sat.dimacs import to_dimacs
@@ -226,9 +225,9 @@ class Encoding:
             return
         eid = {a * n + b: k for k, (a, b) in enumerate(edges)}
         # node 2e: edge e as lo<hi; node 2e+1: hi<lo
-        graph = tie_graph(m, src, dst, fl)
-        _, comp = connected_components(graph, directed=False)
-        self._ties = (graph, edges, eid)  # kept to explain refutations (requirements_behind)
+        _, comp = tie_components(m, src, dst, fl)
+        # kept to explain refutations (requirements_behind); the sparse graph is built then
+        self._ties = ((m, src, dst, fl), edges, eid)
         c0, c1 = comp[0::2], comp[1::2]
         # one variable per class pair {c, reverse c}: numbered by the smaller component id
         key = np.minimum(c0, c1)
@@ -245,7 +244,7 @@ class Encoding:
         bad = np.flatnonzero(c0 == c1)
         if len(bad):
             self.hard.append([])
-            self.unsat_reason = conflict_core(graph, int(bad[0]), edges)
+            self.unsat_reason = conflict_core(tie_graph(m, src, dst, fl), int(bad[0]), edges)
 
     def requirements_behind(self, clause_ids: Iterable[int]) -> list[Key] | None:
         """Requirements that imply the given clauses of a collapsed encoding (selectors off):
@@ -282,7 +281,8 @@ class Encoding:
                 pair_req(b, c)
                 pair_req(a, c)
         if getattr(self, "_ties", None) is not None:
-            graph, edges, eid = self._ties
+            ties, edges, eid = self._ties
+            graph = None
             by_var: dict[int, list[int]] = {}
             for a, b in used:
                 lit = self.lt(a, b)
@@ -294,6 +294,7 @@ class Encoding:
             for nodes in by_var.values():
                 targets = set(nodes[1:]) - {nodes[0]}
                 if targets:
+                    graph = tie_graph(*ties) if graph is None else graph
                     steps = tie_paths(graph, nodes[0], targets, edges)
                     if steps is None:
                         return None

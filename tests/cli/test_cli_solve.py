@@ -240,3 +240,27 @@ def test_atomic_write_follows_umask_and_keeps_existing_mode(tmp_path):
         assert kept.read_text() == "new" and (kept.stat().st_mode & 0o777) == 0o640
     finally:
         os.umask(old)
+
+
+@pytest.mark.parametrize("text", [
+    "a b\nb c\n", "# header\nkiln loom  # note\n\nloom quay\nquay kiln\n", "x y\ny x\nx y\n",
+    "a b\r\nb c\r\n", "a b\nc\u00a0d\n", "a b\nc\n", "a b\nc d e\n", "a b\nc c\n", "# only\n",
+    "p q\n" * 3 + "r r\n" + "s\n", "1 2\n2 3\n10 2\n",
+])
+def test_small_and_large_edge_list_paths_agree(tmp_path, monkeypatch, text):
+    # small edge lists are read line by line without numpy; the numpy path reads large ones.
+    # Both must build the same problem, or fail with the same one-line error.
+    from satorder.io import readers
+
+    f = write(tmp_path, "g.txt", text)
+
+    def outcome():
+        try:
+            p = read_problem(f)
+        except InputError as exc:
+            return str(exc)
+        return p.items, p.adj, p.index
+
+    small = outcome()
+    monkeypatch.setattr(readers, "SMALL_TEXT", -1)
+    assert outcome() == small

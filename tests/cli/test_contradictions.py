@@ -163,7 +163,7 @@ def test_misspelt_item_with_an_items_list_is_bad_input(tmp_path, capsys):
     # without an items list, every name used is an item, as before
     path.write_text(json.dumps({"comparable": [["kiln", "loom"], ["loom", "cc"]]}))
     assert main(["solve", str(path), "--json"]) == 0
-    assert json.loads(capsys.readouterr().out)["items"] == 3
+    assert json.loads(capsys.readouterr().out)["item_count"] == 3
 
 
 def test_text_output_numbers_core_rows_from_one_and_says_drop(tmp_path, capsys):
