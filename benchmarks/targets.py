@@ -12,7 +12,10 @@ with the measured figure:
 4. peak memory (max resident set of the command's process) under 2 GB for each; time grows
    near-linearly in the number of pairs: log-log slope ≤ 1.15 from 10⁴ to 10⁶ pairs;
 5. problems with open pairs, 200–400 items: the compact encoding has ≥ 10× fewer clauses and
-   solves ≥ 5× faster than the direct encoding over all item triples, same solver, same run.
+   solves ≥ 5× faster than the direct encoding over all item triples, same solver, same run;
+6. start-up, as ratios to ``python -c pass`` measured in the same run (the three commands in
+   turn, the ratio taken round by round, the median quoted): ``satorder --version`` ≤ 4×,
+   ``satorder solve`` on a 3-item edge list ≤ 10×, and that solve's peak memory ≤ 100 MB.
 
 Instances are generated on demand (seeded) into ``bench-work/`` outside git.  Every command runs
 in its own process; its peak memory comes from ``os.wait4``.  Results are printed as a table and
@@ -221,16 +224,74 @@ def encodings(work: str, quick: bool, solver: str = "cadical195") -> list[dict]:
     return rows
 
 
+STARTUP_ROUNDS = 9
+
+
+def _median(xs: list[float]) -> float:
+    xs = sorted(xs)
+    k = len(xs) // 2
+    return xs[k] if len(xs) % 2 else (xs[k - 1] + xs[k]) / 2
+
+
+def startup(work: str, quick: bool) -> list[dict]:
+    """Whole-process start-up against ``python -c pass``: each round runs the baseline and each
+    command once, in turn, so that a drift in the machine's speed touches all alike; the ratio
+    is taken within each round and the median over rounds is reported (one warm-up round)."""
+    os.makedirs(work, exist_ok=True)
+    three = os.path.join(work, "three-items.txt")
+    with open(three, "w", encoding="utf-8") as f:
+        f.write("kiln loom\nloom quay\n")
+    script = os.path.join(os.path.dirname(sys.executable), "satorder")
+    exe = [script] if os.path.exists(script) else [sys.executable, "-m", "satorder"]
+    commands = {"baseline": [sys.executable, "-c", "pass"],
+                "version": exe + ["--version"],
+                "solve": exe + ["solve", three]}
+    rounds = 5 if quick else STARTUP_ROUNDS
+    times: dict[str, list[float]] = {k: [] for k in commands}
+    peaks: dict[str, list[int]] = {k: [] for k in commands}
+    with console.status("start-up: python -c pass, satorder --version, satorder solve"):
+        for r in range(rounds + 1):
+            for name, cmd in commands.items():
+                sec, rss, code = _run(cmd)
+                if code != 0:
+                    raise SystemExit(f"start-up: {' '.join(cmd)} exited {code}")
+                if r:  # round 0 warms the file cache
+                    times[name].append(sec)
+                    peaks[name].append(rss)
+    rows = []
+    for name, bound in (("version", 4.0), ("solve", 10.0)):
+        ratios = [t / b for t, b in zip(times[name], times["baseline"])]
+        label = "satorder --version" if name == "version" else "satorder solve (3 items)"
+        row = {"command": label,
+               "median_seconds": _median(times[name]),
+               "baseline_seconds": _median(times["baseline"]),
+               "ratio": _median(ratios), "ratio_min": min(ratios), "ratio_max": max(ratios),
+               "ratio_bound": bound, "peak_bytes": max(peaks[name]), "rounds": rounds}
+        row["ok"] = row["ratio"] <= bound
+        if name == "solve":
+            row["peak_bound_bytes"] = 100 * 1_000_000
+            row["ok"] = row["ok"] and row["peak_bytes"] <= row["peak_bound_bytes"]
+        rows.append(row)
+        console.print(f"start-up {row['command']}: {row['median_seconds']:.3f} s, "
+                      f"python -c pass {row['baseline_seconds']:.3f} s, ratio "
+                      f"{row['ratio']:.2f} (min {row['ratio_min']:.2f}, max "
+                      f"{row['ratio_max']:.2f}), peak {row['peak_bytes'] / 1e6:.1f} MB")
+    return rows
+
+
 def main(argv: list[str] | None = None) -> int:
     ap = argparse.ArgumentParser(prog="python benchmarks/targets.py", description=__doc__,
                                  formatter_class=argparse.RawDescriptionHelpFormatter)
     ap.add_argument("--out", default="bench-results.json", help="JSON results file")
     ap.add_argument("--work", default="bench-work", help="folder for generated instances")
     ap.add_argument("--quick", action="store_true", help="tenth-size instances (a smoke run)")
-    ap.add_argument("--only", choices=["large", "scaling", "encodings"], action="append")
+    ap.add_argument("--only", choices=["startup", "large", "scaling", "encodings"],
+                    action="append")
     args = ap.parse_args(argv)
-    parts = args.only or ["large", "scaling", "encodings"]
+    parts = args.only or ["startup", "large", "scaling", "encodings"]
     res: dict = {"quick": args.quick, "cpu_count": os.cpu_count()}
+    if "startup" in parts:
+        res["startup"] = startup(args.work, args.quick)
     if "large" in parts:
         res["large"] = large_targets(args.work, args.quick)
     if "scaling" in parts:
@@ -240,6 +301,14 @@ def main(argv: list[str] | None = None) -> int:
     table = Table(title="satorder performance targets (measured now, this machine)")
     for col in ("target", "measured", "bound", "met"):
         table.add_column(col)
+    for r in res.get("startup", []):
+        bound = f"≤ {r['ratio_bound']:g}x python -c pass"
+        if "peak_bound_bytes" in r:
+            bound += f", peak ≤ {r['peak_bound_bytes'] / 1e6:.0f} MB"
+        table.add_row(f"start-up: {r['command']}",
+                      f"{r['ratio']:.2f}x ({r['median_seconds']:.3f} s vs "
+                      f"{r['baseline_seconds']:.3f} s); peak {r['peak_bytes'] / 1e6:.1f} MB",
+                      bound, "yes" if r["ok"] else "NO")
     for r in res.get("large", []):
         extra = (f", obstruction {r['obstruction_items']} items"
                  if "obstruction_items" in r else "")

@@ -25,7 +25,6 @@ import random
 import networkx as nx
 from pysat.solvers import Solver
 
-from satorder.errors import InputError
 from satorder.model.order import transitive_closure
 from satorder.model.problem import Problem, ProblemBuilder
 
@@ -140,8 +139,9 @@ def reference_feasible(problem) -> bool:
 
 # ------------------------------------------------------------------------ random problems
 def random_problem(rnd: random.Random, n: int, others: bool | None = None) -> Problem:
-    """A random valid problem: each pair comparable / must stay unordered / open, plus a few
-    fixed and forbidden arcs (invalid combinations are skipped, as the reader would refuse)."""
+    """A random problem: each pair comparable / must stay unordered / open, plus a few fixed
+    and forbidden arcs, which may clash with the rest (an arc fixed both ways, fixed and
+    forbidden, or fixed on a pair that must stay unordered), as merged evidence can."""
     names = [f"i{k}" for k in range(n)]
     b = ProblemBuilder("<random>")
     for x in names:
@@ -161,13 +161,10 @@ def random_problem(rnd: random.Random, n: int, others: bool | None = None) -> Pr
             b.incomparable(x, y, "i")
     for _ in range(rnd.randint(0, 6)):
         x, y = rnd.sample(names, 2)
-        try:
-            if rnd.random() < 0.5:
-                b.fixed(x, y, "f")
-            else:
-                b.forbidden(x, y, "x")
-        except InputError:
-            pass
+        if rnd.random() < 0.5:
+            b.fixed(x, y, "f")
+        else:
+            b.forbidden(x, y, "x")
     return b.build()
 
 

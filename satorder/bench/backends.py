@@ -26,8 +26,18 @@ def sat_solver_names() -> dict[str, str]:
     return names
 
 
+def working_backends() -> list[str]:
+    """The back-end names that work in this installation: ``forcing`` and every SAT solver the
+    engine supports that python-sat can start here (``module:function`` aside)."""
+    from satorder.sat.runner import working_solvers
+
+    return ["forcing", *working_solvers()]
+
+
 def check_backend(name: str) -> str:
-    """Validate a back end name; raise :class:`InputError` naming the choices."""
+    """Validate a back end name before anything runs: ``forcing``, an importable
+    ``module:function``, or a SAT solver the engine supports and python-sat can start here.
+    Raises :class:`InputError` listing the names that work in this installation."""
     if name == "forcing":
         return name
     if ":" in name:
@@ -40,10 +50,16 @@ def check_backend(name: str) -> str:
         if not callable(fn):
             raise InputError(f"back end {name!r} is not a function")
         return name
-    names = sat_solver_names()
-    if name not in names:
-        raise InputError(f"unknown back end {name!r}; choose forcing, a python-sat solver "
-                         f"({', '.join(sorted(set(names.values())))}) or module:function")
+    from satorder.sat.runner import resolve_solver
+
+    try:
+        canon = resolve_solver(name)
+    except InputError:
+        canon = None
+    if canon not in working_backends():
+        raise InputError(f"unknown back end {name!r}; the back ends that work in this "
+                         f"installation: {', '.join(working_backends())}, or module:function "
+                         "for your own")
     return name
 
 
@@ -110,7 +126,7 @@ def execute(task: dict) -> dict:
     except InputError as exc:
         row.update(status="error", error=f"cannot read: {exc}", peak_mb=_peak_mb_self())
         return row
-    row["items"] = problem.n
+    row["item_count"] = problem.n
     row["comparable_pairs"] = problem.num_comparable
     row["read_seconds"] = round(time.perf_counter() - t_start, 6)
     backend = task["backend"]

@@ -39,8 +39,6 @@ from __future__ import annotations
 from itertools import chain
 from math import factorial
 
-import numpy as np
-
 from satorder.errors import CertificateError
 from satorder.jit import HAVE_NUMBA, run
 
@@ -143,6 +141,8 @@ def _colour_classes(adj: list[set[int]], budget: int) -> tuple[int, int] | None:
     (edge ``{a, b}``, ``a < b``, numbered by the rank of ``a·n + b``) with a parity bit:
     ``bit(e)`` stands for "e points from its smaller item to its larger", and a tie between
     ``{v, s}`` and ``{v, x}`` says ``bit xor bit = [v < s] xor [v < x]``."""
+    import numpy as np  # only for prime quotients; small plain problems stay light
+
     n = len(adj)
     centre: list[int] = []
     first: list[int] = []

@@ -15,23 +15,23 @@ from __future__ import annotations
 
 from itertools import chain
 
-import numpy as np
-
 from satorder.errors import CertificateError
-from satorder.jit import HAVE_NUMBA, run
+from satorder.jit import HAVE_NUMBA
+
+# from this many ordered pairs the check runs compiled; below, the plain loop takes
+# milliseconds while loading numba takes about a second
+COMPILED_FROM = 20_000
 
 
 def _first_intransitive(succ: list[set[int]]):
     """``(a, a, a)`` for an item above itself, ``(a, b, c)`` for ``a < b < c`` without
-    ``a < c``, or ``None``.  Successor-set inclusion, compiled when numba is present."""
+    ``a < c``, or ``None``.  Successor-set inclusion, compiled when numba is present and the
+    order has at least :data:`COMPILED_FROM` ordered pairs."""
     n = len(succ)
-    if HAVE_NUMBA and n > 64:
-        deg = np.fromiter((len(s) for s in succ), dtype=np.int64, count=n)
-        indptr = np.zeros(n + 1, dtype=np.int64)
-        np.cumsum(deg, out=indptr[1:])
-        indices = np.fromiter(chain.from_iterable(succ), dtype=np.int64, count=int(indptr[-1]))
-        a, b, c = run(_intransitive_kernel, indptr, indices)
-        return None if a < 0 else (int(a), int(b), int(c))
+    if HAVE_NUMBA and sum(map(len, succ)) >= COMPILED_FROM:
+        from satorder.certify.order_kernel import first_intransitive
+
+        return first_intransitive(succ)
     for a in range(n):
         sa = succ[a]
         if a in sa:
@@ -42,23 +42,6 @@ def _first_intransitive(succ: list[set[int]]):
                 if not succ[b] <= sa:
                     return (a, b, next(iter(succ[b] - sa)))
     return None
-
-
-def _intransitive_kernel(indptr, indices):  # pragma: no cover - compiled
-    n = len(indptr) - 1
-    mark = np.full(n, -1, dtype=np.int64)
-    for a in range(n):
-        for t in range(indptr[a], indptr[a + 1]):
-            mark[indices[t]] = a
-        if mark[a] == a:
-            return a, a, a
-        for t in range(indptr[a], indptr[a + 1]):
-            b = indices[t]
-            for u in range(indptr[b], indptr[b + 1]):
-                c = indices[u]
-                if mark[c] != a:
-                    return a, b, c
-    return -1, -1, -1
 
 
 def check_order(problem, succ: list[set[int]]) -> None:

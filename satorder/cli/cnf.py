@@ -11,16 +11,16 @@ from __future__ import annotations
 
 import sys
 
+from satorder.cli import options
 from satorder.cli.common import check_output_path, err, load
 from satorder.io.files import atomic_write
 from satorder.sat.encoding import Encoding
 
 
 def add_parser(sub):
-    p = sub.add_parser("cnf", help="write the problem as DIMACS CNF with named variables",
-                       description=__doc__)
+    p = sub.add_parser("cnf", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
-    p.add_argument("--out", metavar="FILE", help="write the CNF to FILE instead of standard output")
+    options.add_out(p, "the CNF, instead of standard output")
     p.add_argument("--selectors", action="store_true",
                    help="give each requirement its own selector variable (no class merging)")
     return p
@@ -32,7 +32,7 @@ def cnf_text(problem, selectors: bool = False) -> str:
     from rich.progress import Progress
 
     enc = Encoding(problem, selectors=selectors, lazy=True)
-    with Progress(console=err, transient=True) as bar:
+    with Progress(console=err.real, transient=True) as bar:
         task = bar.add_task("transitivity clauses", total=problem.n)
         enc.add_all_transitivity(progress=lambda done, total: bar.update(task, completed=done))
     return enc.to_dimacs()

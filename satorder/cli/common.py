@@ -1,5 +1,6 @@
-"""Pieces the commands share: loading problems, JSON printing, output paths, SVG pictures of an
-order (``solve --draw`` and ``measure --draw``)."""
+"""Pieces the commands share: the two consoles, loading problems, JSON printing, output paths,
+SVG pictures of an order (``solve --draw`` and ``measure --draw``).  The shared options
+themselves are defined in :mod:`satorder.cli.options`."""
 
 from __future__ import annotations
 
@@ -7,14 +8,43 @@ import json
 import os
 import sys
 
-from rich.console import Console
-
+from satorder.cli.options import add_report as add_report_option  # noqa: F401  (older name)
 from satorder.errors import InputError
 from satorder.io.files import atomic_write
-from satorder.io.readers import read_problem
 
-out = Console(highlight=False, soft_wrap=True)
-err = Console(stderr=True, highlight=False, soft_wrap=True)
+
+class _LazyConsole:
+    """A rich console made on first use: a command that prints only JSON never imports rich.
+    A closed standard output (``| head``) raises :class:`BrokenPipeError`, which the entry
+    point turns into a quiet exit (rich's own handling exits with status 1)."""
+
+    def __init__(self, **options):
+        self._options = options
+        self._console = None
+
+    def _get(self):
+        if self._console is None:
+            from rich.console import Console
+
+            class _Console(Console):
+                def on_broken_pipe(self) -> None:
+                    self.quiet = True
+                    raise BrokenPipeError
+
+            self._console = _Console(**self._options)
+        return self._console
+
+    @property
+    def real(self):
+        """The rich console itself (for rich objects that take a ``console``)."""
+        return self._get()
+
+    def __getattr__(self, name):
+        return getattr(self._get(), name)
+
+
+out = _LazyConsole(highlight=False, soft_wrap=True)
+err = _LazyConsole(stderr=True, highlight=False, soft_wrap=True)
 
 
 class UsageError(InputError):
@@ -22,8 +52,14 @@ class UsageError(InputError):
 
 
 def load(path: str):
-    """Read a problem file; errors surface as InputError (exit 2)."""
-    return read_problem(path)
+    """Read a problem file; errors surface as InputError (exit 2).  The reader's notes (such as
+    repeated requirements merged) are printed once on standard error."""
+    from satorder.io.readers import read_problem
+
+    problem = read_problem(path)
+    for note in problem.notes:
+        err.print(f"note: {note}", markup=False)
+    return problem
 
 
 def dumps(doc) -> str:
@@ -70,13 +106,6 @@ def write_pictures(path, source, succ, names, measures=None, weights=None,
     for name, text in pictures(path, succ, names, measures, weights).items():
         atomic_write(name, text)
         err.print(f"wrote {name}", markup=False)
-
-
-def add_report_option(parser) -> None:
-    """The shared ``--report FILE.html`` option."""
-    parser.add_argument("--report", metavar="FILE.html",
-                        help="also write one self-contained HTML report (tables, pictures, "
-                             "requirements) to share; opens offline in any browser")
 
 
 def check_report_path(path: str | None, *inputs: str) -> None:

@@ -1,12 +1,19 @@
-"""``satorder count FILE``: the exact number of answers (orders meeting every requirement)."""
+"""``satorder count FILE``: the number of answers (orders meeting every requirement).
+
+Problems with open pairs are counted by listing every answer, which is exponential work: before
+it starts, standard error says how many answers there can be at most.  Past 10,000 listed
+answers the count turns approximate (ApproxMC, with ε and δ stated; ``--method enumeration``
+insists on listing).  The time limit or Ctrl-C stops the listing with a lower bound
+(``"exact": false``, ``"stopped": "time-limit"`` or ``"interrupted"``; exit status 3 or 130).
+"""
 
 from __future__ import annotations
 
 from rich.progress import Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
 
+from satorder.cli import options
 from satorder.cli.common import (
     UsageError,
-    add_report_option,
     check_output_path,
     check_report_path,
     command_line,
@@ -27,6 +34,7 @@ from satorder.pipeline.count import (
     check_count,
     count_answers,
 )
+from satorder.pipeline.orders import INTERRUPTED, LIMIT, TIME_LIMIT
 
 TREE_LIMIT = 60  # items up to which the decomposition tree is drawn on screen
 DRAW_LIMIT = 300  # items up to which --draw makes a picture
@@ -61,26 +69,24 @@ def decomposition_tree(problem):
 
 
 def add_parser(sub):
-    p = sub.add_parser("count", help="count the answers exactly (any size)", description=__doc__)
+    p = sub.add_parser("count", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
-    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
-    p.add_argument("--out", metavar="FILE", help="also write the JSON result to FILE")
+    options.add_json(p)
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--method", choices=METHODS, default="auto",
                    help="modular decomposition (problems without open pairs), enumeration by "
                         "SAT with blocking clauses (every answer, however many), approximate "
                         "(ApproxMC), or auto (default: enumeration that turns approximate past "
                         f"{LISTING_THRESHOLD:,} answers)")
-    p.add_argument("--seed", type=int, default=0,
-                   help="seed of the approximate count's random hashes (default 0)")
     p.add_argument("--limit", type=int, default=None, metavar="N",
                    help="enumeration stops after N answers and reports a lower bound")
-    p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
-                   help="enumeration stops after SECONDS and reports a lower bound; the "
-                        "check that an answer exists gets as long again")
-    p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
+    options.add_time_limit(p, extra="an enumeration reports a lower bound; the check that an "
+                                     "answer exists gets as long again")
+    options.add_solver(p)
+    options.add_seed(p, default=0, extra="ApproxMC's random hashes")
     p.add_argument("--draw", metavar="FILE.svg",
                    help=f"draw the modular decomposition tree (up to {DRAW_LIMIT} items)")
-    add_report_option(p)
+    options.add_report(p)
     return p
 
 
@@ -97,7 +103,7 @@ def run(args) -> int:
         if problem.n > DRAW_LIMIT or problem.n == 0:
             raise UsageError(f"{args.file}: {problem.n} items; --draw needs 1 to {DRAW_LIMIT}")
     with Progress(SpinnerColumn(), TextColumn("{task.description}"), TimeElapsedColumn(),
-                  console=err, transient=True, disable=args.json) as bar:
+                  console=err.real, transient=True, disable=args.json) as bar:
         task = bar.add_task("counting…", total=None)
 
         def progress(k):
@@ -105,10 +111,17 @@ def run(args) -> int:
 
         res = count_answers(problem, limit=args.limit, solver=args.solver,
                             time_limit=args.time_limit, method=args.method,
-                            on_progress=progress, seed=args.seed)
-        bar.update(task, description="checking the count with another engine…")
-        check_count(res, solver=args.solver, time_limit=args.time_limit)
+                            on_progress=progress,
+                            on_enumeration=lambda bound: _warn_exponential(bound, args.method),
+                            seed=args.seed)
+        if res.reason == INTERRUPTED:  # stop now: every order counted was certified already
+            res.stats["checks"] = ["every order counted was certified; the cross-check was "
+                                   "skipped after Ctrl-C"]
+        else:
+            bar.update(task, description="checking the count with another engine…")
+            check_count(res, solver=args.solver, time_limit=args.time_limit)
     doc = res.to_json()
+    status = {INTERRUPTED: 130, TIME_LIMIT: 3}.get(res.reason, 0)
     if args.draw:
         from satorder.graph.modular import modular_decomposition
         from satorder.render.decomposition_svg import decomposition_svg
@@ -125,18 +138,27 @@ def run(args) -> int:
         write_report(args.report, count_report(res, command_line(args)))
     if args.json:
         print_json(doc)
-        return 0
+        return status
     how = {DECOMPOSITION: "by modular decomposition", ENUMERATION: "by SAT enumeration"}
     text = f"{res.count:,}"
-    if res.method == APPROXIMATE:
-        d = res.to_json()
-        out.print(f"[bold]about {text}[/] answers (approximate model counting: {d['guarantee']}; "
-                  f"{d['lower_bound']:,} certified answers listed first).")
+    clash = res.stats.get("clash")
+    if clash:
+        from satorder.model.requirement import Requirement
+        from satorder.model.wording import requirement_text
+
+        words = [requirement_text(Requirement.from_json(r, problem.index), problem.items)
+                 for r in clash]
+        out.print(f"[bold]0[/] answers (exact): two requirements clash on one pair — "
+                  f"{words[0]}; {words[1]}. Run satorder explain {args.file} for repairs.")
+    elif res.method == APPROXIMATE:
+        out.print(f"[bold]about {text}[/] answers (approximate model counting: {doc['guarantee']}; "
+                  f"{doc['lower_bound']:,} certified answers listed first).")
     elif res.exact:
         out.print(f"[bold]{text}[/] answers ({how[res.method]}, exact).")
     else:
-        out.print(f"[bold]at least {text}[/] answers ({how[res.method]}; stopped at the "
-                  f"{res.reason} before the end).")
+        why = {LIMIT: "--limit", TIME_LIMIT: "the time limit", INTERRUPTED: "Ctrl-C"}
+        out.print(f"[bold]at least {text}[/] answers ({how[res.method]}; "
+                  f"{why.get(res.reason, res.reason)} stopped it before the end).")
     if len(str(res.count)) > 30:
         out.print(f"  ≈ {res.count:.3e}" if res.count < 10**300 else
                   f"  a number with {len(str(res.count))} digits")
@@ -150,4 +172,23 @@ def run(args) -> int:
         out.print(f"  [green]checked:[/] {c}")
     if problem.prefer:
         out.print("  preferences rank answers but rule none out, so they are not counted.")
-    return 0
+    return status
+
+
+EXPONENTIAL_AT = 4.0  # log10 of the most answers from which the listing's cost is announced
+
+
+def _warn_exponential(log10_bound: float, method: str) -> None:
+    """Say on standard error, before listing starts, how many answers there can be."""
+    if log10_bound < EXPONENTIAL_AT:
+        return
+    if method == "auto":
+        err.print(f"satorder count: up to ~10^{log10_bound:.0f} answers are possible (every "
+                  "pair's possible states multiplied); they are listed one by one up to "
+                  f"{LISTING_THRESHOLD:,} and counted approximately beyond (ApproxMC; "
+                  "--method enumeration lists every one)", markup=False)
+        return
+    err.print(f"satorder count: listing the answers one by one, exponential work: up to "
+              f"~10^{log10_bound:.0f} answers are possible (every pair's possible states "
+              "multiplied), each costing a SAT call; --time-limit or Ctrl-C stops with a "
+              "lower bound", markup=False)

@@ -13,18 +13,16 @@ from __future__ import annotations
 import json
 from importlib import resources
 
-from rich.table import Table
-
 from satorder.cli.common import err, out
 from satorder.io.readers import problem_from_dict
+from satorder.model.wording import requirement_text
 from satorder.pipeline.solve import solve
 from satorder.render.answer_text import print_answer
 from satorder.sat.direct import direct_encoding
 
 
 def add_parser(sub):
-    p = sub.add_parser("demo", help="solve small embedded examples and show the answers",
-                       description=__doc__)
+    p = sub.add_parser("demo", description=__doc__)
     p.add_argument("--pictures", metavar="DIR",
                    help="also write one picture of each kind and a report into DIR")
     return p
@@ -46,33 +44,6 @@ def load_demo_rules():
     return _load("demo-rules.json")
 
 
-def _rules_table(problem, ans) -> Table:
-    names = problem.items
-    succ = ans.succ
-    table = Table(title="Rules and open pairs in the answer")
-    table.add_column("kind")
-    table.add_column("pair")
-    table.add_column("in the answer")
-    for a, b in problem.fixed:
-        table.add_row("fixed", f"{names[a]} before {names[b]}",
-                      "[green]holds[/]" if b in succ[a] else "[red]broken[/]")
-    for a, b in problem.forbidden:
-        table.add_row("forbidden", f"{names[a]} before {names[b]}",
-                      "[green]avoided[/]" if b not in succ[a] else "[red]broken[/]")
-    fixed = {frozenset(arc) for arc in problem.fixed}
-    for a in range(problem.n):
-        for b in range(a + 1, problem.n):
-            if problem.is_open(a, b) and frozenset((a, b)) not in fixed:
-                if b in succ[a]:
-                    state = f"sequenced: {names[a]} first"
-                elif a in succ[b]:
-                    state = f"sequenced: {names[b]} first"
-                else:
-                    state = "side by side"
-                table.add_row("open", f"{names[a]}, {names[b]}", state)
-    return table
-
-
 def run(args) -> int:
     doc, problem = load_demo()
     out.rule("[bold]satorder demo, part 1: who must wait for whom[/]")
@@ -91,9 +62,7 @@ def run(args) -> int:
     out.print(f"{len(rules.fixed)} fixed arcs, {len(rules.forbidden)} forbidden arc, "
               f"{opened} open pairs.\n")
     ans = solve(rules)
-    print_answer(ans, out)
-    if ans.feasible:
-        out.print(_rules_table(rules, ans))
+    print_answer(ans, out)  # with the table of how each rule and open pair came out
     base = direct_encoding(rules)
     out.print(f"CNF: {ans.stats.get('variables')} variables and {ans.stats.get('clauses')} "
               f"clauses, against {base.nv} variables and {base.num_clauses} clauses for the "
@@ -138,6 +107,6 @@ def _part_counts_and_wishes(plain, rules) -> None:
     wished = problem_from_dict({**doc, "prefer": wishes["prefer"]}, source="demo-wishes.json")
     out.print("\n" + wishes["comment"])
     for a, b, w in wished.prefer:
-        out.print(f"  wish: {wished.items[a]} before {wished.items[b]} (weight {w})")
+        out.print("  " + requirement_text(("prefer", (a, b)), wished.items, weight=w))
     out.print()
     print_answer(solve(wished), out)

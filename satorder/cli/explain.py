@@ -1,14 +1,19 @@
 """``satorder explain FILE``: why no order exists — a minimal core of your requirements, a
-step-by-step derivation, an obstruction, and repairs."""
+step-by-step derivation, an obstruction, and repairs.
+
+When the time limit or Ctrl-C stops the shrinking of the core, the requirements reached so far
+(still unable to hold together) are printed, marked not minimal (exit status 3 or 130).
+"""
 
 from __future__ import annotations
 
+from satorder.cli import options
 from satorder.cli.common import (
     UsageError,
-    add_report_option,
     check_output_path,
     check_report_path,
     command_line,
+    dumps,
     err,
     load,
     out,
@@ -23,35 +28,38 @@ from satorder.render.explanation_text import print_explanation
 
 
 def add_parser(sub):
-    p = sub.add_parser("explain", help="explain why no order exists, and how to repair it",
-                       description=__doc__)
+    p = sub.add_parser("explain", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
-    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
+    options.add_json(p)
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--smallest", action="store_true",
                    help="look for a core with the fewest requirements (small problems)")
     p.add_argument("--repairs", type=int, default=0, metavar="K",
                    help="list up to K minimal sets of requirements whose removal fixes it")
     p.add_argument("--draw", metavar="FILE.svg", help="write a picture of the core (SVG)")
-    p.add_argument("--time-limit", type=float, default=30.0, metavar="SECONDS",
-                   help="time for --smallest and for --repairs each (default 30)")
-    add_report_option(p)
+    options.add_time_limit(p, default=30.0, extra="shrinking the core, then --smallest and "
+                           "--repairs each get what is left (a core cut short is marked not "
+                           "minimal)")
+    options.add_solver(p, "for the SAT engine's core on problems of more than 60 items")
+    options.add_report(p)
     return p
 
 
 def run(args) -> int:
     if args.repairs < 0:
         raise UsageError(f"--repairs must be 0 or more, got {args.repairs}")
-    if args.time_limit <= 0:
-        raise UsageError(f"--time-limit must be positive, got {args.time_limit:g}")
     if args.draw and not args.draw.lower().endswith(".svg"):
         raise UsageError(f"--draw {args.draw}: the picture is SVG; give a name ending in .svg")
     check_output_path(args.draw, args.file)
+    check_output_path(args.out, args.file)
     check_report_path(args.report, args.file)
     problem = load(args.file)
     with err.status("explaining…") as status:
         expl = explain(problem, smallest=args.smallest, repairs=args.repairs,
-                       time_limit=args.time_limit,
+                       time_limit=args.time_limit, solver=args.solver,
                        progress=lambda stage: status.update(f"explaining: {stage}…"))
+    if args.out:
+        atomic_write(args.out, dumps(expl.to_json()))
     drawn = False
     if args.draw:
         if expl.status != INFEASIBLE:
@@ -72,4 +80,6 @@ def run(args) -> int:
         print_explanation(expl, out, file=args.file)
         if drawn:
             out.print(f"Picture written to {args.draw}")
-    return 3 if expl.status == UNKNOWN else 0
+    if expl.stopped == "interrupted":
+        return 130
+    return 3 if expl.status == UNKNOWN or not expl.minimal else 0

@@ -14,18 +14,19 @@ from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, T
 from rich.table import Table
 
 import satorder.generate as gen
+from satorder.cli import options
 from satorder.cli.common import UsageError, err, out
 
 
 def add_parser(sub):
-    p = sub.add_parser("make-suite", help="generate a suite of problems with a manifest",
-                       description=__doc__)
+    p = sub.add_parser("make-suite", description=__doc__)
     p.add_argument("outdir", nargs="?", help="folder to write the problems and manifest.json into")
     p.add_argument("--recipe", choices=sorted(gen.RECIPES), help="a named suite")
     p.add_argument("--family", choices=sorted(gen.FAMILIES), help="one family instead")
     p.add_argument("--items", type=int, nargs="+", metavar="N", help="sizes (with --family)")
-    p.add_argument("--seeds", type=int, nargs="+", default=[1], metavar="S",
-                   help="seeds (with --family; default 1)")
+    options.add_seed(p, extra="with --family")
+    p.add_argument("--seeds", type=int, nargs="+", default=None, metavar="S",
+                   help="several seeds instead of one (with --family)")
     p.add_argument("--set", action="append", default=[], metavar="KEY=VALUE",
                    help="family parameter, e.g. degree=1.5 or conflict=cycle (repeatable)")
     p.add_argument("--format", choices=["json", "edges"], default="json",
@@ -67,6 +68,7 @@ def run(args) -> int:
         if not args.items:
             raise UsageError("--family needs --items N [N ...]")
         params = dict(_param(t) for t in args.set)
+        args.seeds = args.seeds or [args.seed]
         specs = gen.suite_specs(args.family, args.items, args.seeds, args.format, **params)
         if args.format == "edges":
             probe = gen.generate(args.family, min(args.items), args.seeds[0], **params)
@@ -79,7 +81,7 @@ def run(args) -> int:
                                      *[x for t in args.set for x in ("--set", t)],
                                      "--format", args.format])
     with Progress(TextColumn("{task.description}"), BarColumn(), MofNCompleteColumn(),
-                  TimeElapsedColumn(), console=err, transient=True) as bar:
+                  TimeElapsedColumn(), console=err.real, transient=True) as bar:
         task = bar.add_task(f"generating {name}", total=len(specs))
         manifest = gen.make_suite(args.outdir, specs, name, command,
                                   progress=lambda k, total, f: bar.update(task, completed=k))

@@ -7,9 +7,8 @@ import time
 
 from rich.table import Table
 
+from satorder.cli import options
 from satorder.cli.common import (
-    UsageError,
-    add_report_option,
     check_draw,
     check_output_path,
     check_report_path,
@@ -31,11 +30,10 @@ SHOW = 12  # items listed per witness on screen
 
 
 def add_parser(sub):
-    p = sub.add_parser("measure", help="height, width, dimension (with witnesses) of the order",
-                       description=__doc__)
+    p = sub.add_parser("measure", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
-    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
-    p.add_argument("--out", metavar="FILE", help="also write the JSON figures to FILE")
+    options.add_json(p)
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--draw", metavar="FILE.svg",
                    help="draw the Hasse diagram to FILE.svg (a summary by level above 150 items; "
                         "for dimension 2 also a dominance drawing to FILE-dominance.svg)")
@@ -43,10 +41,10 @@ def add_parser(sub):
                    help="engine that finds the order (see 'satorder solve --help')")
     p.add_argument("--sat-limit", type=int, default=40, metavar="N",
                    help="largest part (items) whose dimension ≥ 3 is settled by SAT (default 40)")
-    p.add_argument("--time-limit", type=float, default=60.0, metavar="SECONDS",
-                   help="time for finding and measuring the order; the dimension search "
-                        "stops in time to report bounds (default 60)")
-    add_report_option(p)
+    options.add_time_limit(p, default=60.0, extra="covers finding and measuring the order; "
+                           "the dimension search stops in time to report bounds")
+    options.add_solver(p, "for finding the order")
+    options.add_report(p)
     return p
 
 
@@ -56,8 +54,6 @@ def _names(names, items, limit=SHOW):
 
 
 def run(args) -> int:
-    if args.time_limit <= 0:
-        raise UsageError(f"--time-limit must be positive, got {args.time_limit:g}")
     end = time.monotonic() + args.time_limit
     check_output_path(args.out, args.file)
     check_report_path(args.report, args.file)
@@ -65,10 +61,11 @@ def run(args) -> int:
     if args.draw:
         check_draw(args.draw, args.file)
     with err.status("finding the order…"):
-        ans = solve(problem, engine=args.engine, time_limit=args.time_limit)
+        ans = solve(problem, engine=args.engine, solver=args.solver,
+                    time_limit=args.time_limit)
     if not ans.feasible:
         doc = {"status": ans.status, "height": None, "width": None, "dimension": None,
-               "items": problem.n}
+               "item_count": problem.n}
         if args.out:
             atomic_write(args.out, dumps(doc))
         if args.report:

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import sys
 
+from satorder.cli import options
 from satorder.cli.common import UsageError, check_output_path, dumps, err, load
 from satorder.io.files import atomic_write
 from satorder.model.requirement import UNKNOWN
@@ -17,19 +18,18 @@ from satorder.pipeline.sample import METHODS
 
 
 def add_parser(sub):
-    p = sub.add_parser("sample", help="draw answers uniformly at random (JSON lines), each "
-                                      "certified", description=__doc__)
+    p = sub.add_parser("sample", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     p.add_argument("-k", type=int, default=1, metavar="K", help="how many answers (default 1)")
-    p.add_argument("--seed", type=int, default=0, help="seed of the random draws (default 0)")
+    options.add_seed(p, default=0, extra="the answers drawn")
     p.add_argument("--method", choices=METHODS, default="auto",
                    help="modular decomposition (no open pairs), listing (open pairs, few "
                         "answers), unigen (almost uniform), or auto (default)")
-    p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
-                   help="give status unknown instead of running longer")
-    p.add_argument("--out", metavar="FILE", help="write the lines to FILE instead of the screen")
-    p.add_argument("--json", action="store_true",
-                   help="accepted for uniformity: the output is always JSON lines")
+    options.add_time_limit(p, extra="status unknown and no answers when they are not drawn "
+                                     "by then")
+    options.add_solver(p, "the check that an answer exists before UniGen samples")
+    options.add_out(p, "the same JSON lines, instead of standard output")
+    options.add_json(p, "the output is JSON lines with or without it")
     return p
 
 
@@ -37,13 +37,11 @@ def run(args) -> int:
     check_output_path(args.out, args.file)
     if args.k < 0:
         raise UsageError(f"-k must be 0 or more, got {args.k}")
-    if args.time_limit is not None and args.time_limit <= 0:
-        raise UsageError(f"--time-limit must be positive, got {args.time_limit:g}")
     problem = load(args.file)
     from satorder.pipeline.sample import sample_answers
 
     res = sample_answers(problem, args.k, seed=args.seed, method=args.method,
-                         time_limit=args.time_limit)
+                         time_limit=args.time_limit, solver=args.solver)
     names = problem.items
     lines = []
     for k, succ in enumerate(res.orders, 1):

@@ -6,9 +6,9 @@ from __future__ import annotations
 
 import sys
 
+from satorder.cli import options
 from satorder.cli.common import (
     UsageError,
-    add_report_option,
     check_output_path,
     check_report_path,
     command_line,
@@ -24,11 +24,10 @@ from satorder.pipeline.settled import METHODS, SAMPLES
 
 
 def add_parser(sub):
-    p = sub.add_parser("settled", help="which pairs every answer orders alike, and the shares "
-                                       "of the free ones", description=__doc__)
+    p = sub.add_parser("settled", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
-    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
-    p.add_argument("--out", metavar="FILE", help="also write the JSON result to FILE")
+    options.add_json(p)
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--why", nargs=2, metavar=("A", "B"),
                    help="explain the pair A, B: the requirements that settle it, or two "
                         "answers that order it differently")
@@ -41,11 +40,11 @@ def add_parser(sub):
                    help="approximate count within a factor 1+E (default 0.8)")
     p.add_argument("--delta", type=float, default=None, metavar="D",
                    help="... with probability at least 1-D (default 0.2)")
-    p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
-                   help="give status unknown instead of running longer")
-    p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
-    p.add_argument("--seed", type=int, default=0, help="seed of the random draws (default 0)")
-    add_report_option(p)
+    options.add_time_limit(p, extra="status unknown when the shares are not known by then; "
+                                     "with --why default 30")
+    options.add_solver(p)
+    options.add_seed(p, default=0, extra="the answers drawn for checks and approximate shares")
+    options.add_report(p, "all pairs; not with --why")
     return p
 
 
@@ -54,8 +53,6 @@ def run(args) -> int:
     check_report_path(args.report, args.file)
     if args.samples < 1:
         raise UsageError(f"--samples must be at least 1, got {args.samples}")
-    if args.time_limit is not None and args.time_limit <= 0:
-        raise UsageError(f"--time-limit must be positive, got {args.time_limit:g}")
     if args.epsilon is not None and args.epsilon <= 0:
         raise UsageError(f"--epsilon must be positive, got {args.epsilon:g}")
     if args.delta is not None and not 0 < args.delta < 1:
@@ -72,6 +69,8 @@ def run(args) -> int:
     text = res.to_json_text() if (args.json or args.out) else None
     if args.out:
         atomic_write(args.out, text)
+    if res.answer is not None and (args.report or not args.json):
+        _shrink_core(res.answer)
     if args.report:
         from satorder.render.report_pages import settled_report
 
@@ -95,6 +94,8 @@ def _why(args, problem) -> int:
     with err.status("explaining the pair…"):
         why = why_settled(problem, *args.why, time_limit=args.time_limit or 30.0,
                           solver=args.solver)
+    if why.answer is not None and not args.json:
+        _shrink_core(why.answer)
     doc = why.to_json()
     if args.out:
         from satorder.cli.common import dumps
@@ -105,3 +106,15 @@ def _why(args, problem) -> int:
     else:
         print_why(why, out)
     return 3 if why.status == UNKNOWN else 0
+
+
+def _shrink_core(ans) -> None:
+    """The one-screen summary of an infeasible problem, as in ``solve``: a minimal core."""
+    from satorder.explanation.explain import minimal_core_of
+    from satorder.model.requirement import INFEASIBLE
+
+    if ans.status == INFEASIBLE:
+        core = minimal_core_of(ans)
+        if core is not None:
+            ans.core = core
+            ans.stats["minimal_core"] = True

@@ -5,8 +5,8 @@ from __future__ import annotations
 import sys
 import time
 
+from satorder.cli import options
 from satorder.cli.common import (
-    add_report_option,
     check_output_path,
     check_report_path,
     command_line,
@@ -18,22 +18,19 @@ from satorder.cli.common import (
 from satorder.io.files import atomic_write
 from satorder.model.requirement import INFEASIBLE, UNKNOWN
 from satorder.pipeline.solve import ENGINES, solve
-from satorder.render.answer_text import print_answer
 
 
 def add_parser(sub):
-    p = sub.add_parser("solve", help="find a certified order, or show that none exists",
-                       description=__doc__)
+    p = sub.add_parser("solve", description=__doc__)
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
-    p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
-    p.add_argument("--out", metavar="FILE", help="also write the JSON answer to FILE")
+    options.add_json(p)
+    options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--engine", choices=ENGINES, default="auto",
                    help="forcing (plain problems), sat, both (cross-check), auto (default)")
-    p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
-    p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
-                   help="give status unknown instead of running longer")
+    options.add_solver(p)
+    options.add_time_limit(p, extra="status unknown when no verdict was reached")
     p.add_argument("--draw", metavar="FILE.svg", help="draw the order's Hasse diagram to FILE.svg")
-    add_report_option(p)
+    options.add_report(p)
     return p
 
 
@@ -66,5 +63,26 @@ def run(args) -> int:
         sys.stdout.write(text)
         sys.stdout.flush()
     else:
-        print_answer(ans, out, hint_file=args.file)
+        from satorder.render.answer_text import print_answer
+
+        admitted = _admitted(problem, args.file) if ans.feasible else None
+        print_answer(ans, out, hint_file=args.file, admitted=admitted)
     return 3 if ans.status == UNKNOWN else 0
+
+
+def _admitted(problem, file: str) -> str:
+    """One line: how many orders the requirements admit, when that is cheap to know (counted
+    by modular decomposition and checked), or that other answers may exist."""
+    from satorder.pipeline.count import answers_admitted
+
+    res = answers_admitted(problem)
+    hard = "hard requirements" if problem.prefer else "requirements"
+    if res is None:
+        why = (f" ({problem.num_open} pairs are open)" if problem.has_open_pairs else "")
+        return (f"Other orders may also meet the {hard}{why}; satorder count {file} says how "
+                "many.")
+    if res.count == 1:
+        return f"This is the only order the {hard} admit (counted by modular decomposition, " \
+               "checked)."
+    return (f"The {hard} admit {res.count:,} orders; this is one of them (counted by modular "
+            f"decomposition, checked; satorder orders {file} lists them).")

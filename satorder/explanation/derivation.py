@@ -42,6 +42,7 @@ from collections import defaultdict, deque
 from dataclasses import dataclass
 
 from satorder.model.requirement import Kind, Requirement
+from satorder.model.wording import requirement_text
 
 Arc = tuple[int, int]
 
@@ -282,17 +283,12 @@ def build_derivation(core: list[Requirement], budget: int = 20000,
 
 # ---------------------------------------------------------------------- words
 def describe(step: Step, core: list[Requirement], names: list[str]) -> tuple[str, str]:
-    """The claim of a step and its justification, in plain words (item names)."""
+    """The claim of a step and its justification, in plain words (item names).  Core members
+    are cited as numbered rows, counted from 1 as the core is printed, each in the wording of
+    :func:`satorder.model.wording.requirement_text`."""
 
     def req(k: int) -> str:
-        kind, (a, b) = core[k]
-        a, b = names[a], names[b]
-        return {
-            Kind.COMPARABLE: f"{a} and {b} must be ordered",
-            Kind.INCOMPARABLE: f"{a} and {b} must stay unordered",
-            Kind.FIXED: f"{a} must come before {b}",
-            Kind.FORBIDDEN: f"{a} before {b} is ruled out",
-        }[kind]
+        return f"row {k + 1} ({requirement_text(core[k], names)})"
 
     claim = "contradiction" if step.arc is None else f"{names[step.arc[0]]} < {names[step.arc[1]]}"
     s = step.steps
@@ -300,9 +296,9 @@ def describe(step: Step, core: list[Requirement], names: list[str]) -> tuple[str
         why = f"fixed arc: {req(step.requirements[0])}"
     elif step.rule == "assume":
         claim = f"suppose {claim}"
-        why = f"case split: {req(step.requirements[0])}, one way or the other"
+        why = f"case split on {req(step.requirements[0])}"
     elif step.rule == "other way":
-        why = (f"the case in steps {s[0]}–{s[1]} is impossible and "
+        why = (f"the case in steps {s[0]}–{s[1]} is impossible and the pair must be ordered: "
                f"{req(step.requirements[0])}")
     elif step.rule == "forcing":
         a, b = step.arc
@@ -318,9 +314,9 @@ def describe(step: Step, core: list[Requirement], names: list[str]) -> tuple[str
         why = f"antisymmetry: steps {s[0]} and {s[1]} order the same pair both ways"
     elif step.rule == "unordered":
         a, b = (names[v] for v in core[step.requirements[0]].pair)
-        why = f"step {s[0]} orders {a} and {b}, which must stay unordered"
+        why = f"step {s[0]} orders {a} and {b}, against {req(step.requirements[0])}"
     elif step.rule == "forbidden":
-        why = f"step {s[0]} is ruled out: {req(step.requirements[0])}"
+        why = f"step {s[0]} is ruled out by {req(step.requirements[0])}"
     else:
         why = step.rule
     return claim, why

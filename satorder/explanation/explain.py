@@ -5,9 +5,11 @@ change?":
 
 * **core** — a minimal infeasible subset of the requirements (every other requirement dropped,
   unnamed pairs open; dropping any one member makes it feasible), found by deletion-based MUS
-  extraction (:mod:`satorder.sat.mus`).  For problems whose non-comparable pairs must all stay
-  unordered, the search starts from the forcing chain of a minimal obstruction, so only the
-  unordered pairs that justify forcing steps ever get a selector — never one per non-edge.
+  extraction (:mod:`satorder.sat.mus`); two requirements that clash on one pair
+  (:meth:`~satorder.model.problem.Problem.contradictions`) are such a core at once.  For
+  problems whose non-comparable pairs must all stay unordered, the search starts from the
+  forcing chain of a minimal obstruction, so only the unordered pairs that justify forcing
+  steps ever get a selector — never one per non-edge.
 * **obstruction** — when the comparable pairs alone admit no order: a minimal set of items whose
   induced subgraph has no transitive orientation (:mod:`satorder.graph.obstruction`).
 * **derivation** — numbered steps from the core to a contradiction
@@ -37,15 +39,21 @@ from typing import Any
 
 from satorder import certify
 from satorder.certify import derivation as replay
-from satorder.errors import CertificateError
+from satorder.errors import CertificateError, TimeLimitReached
 from satorder.explanation import derivation as derivation
-from satorder.explanation.checks import check_core, check_obstruction, minimality_witnesses
+from satorder.explanation.checks import (
+    MINIMALITY_CHECK_ITEMS,
+    check_core,
+    check_obstruction,
+    minimality_witnesses,
+)
 from satorder.explanation.repairs import (
     REPAIR_SAT_ITEMS,
     Repair,
     _closure,
     _local_repairs,
     _verify_small_repair,
+    repair_text,
 )
 from satorder.explanation.requirements import requirements
 from satorder.graph.forcing import ForcingResult, transitive_orientation
@@ -65,7 +73,9 @@ from satorder.model.requirement import (
     Status,
     items_of,
 )
+from satorder.model.wording import requirement_text
 from satorder.sat.mus import (
+    CutShort,
     RequirementOracle,
     core_oracle,
     correction_sets,
@@ -96,6 +106,8 @@ class Explanation:
     notes: list[str] = field(default_factory=list)
     verified: bool = False
     stats: dict[str, Any] = field(default_factory=dict)
+    minimal: bool = True  # False: shrinking the core was cut short (``stopped`` says why)
+    stopped: str | None = None  # "time-limit" or "interrupted" when the work was cut short
 
     def __post_init__(self) -> None:
         self.status = Status(self.status)
@@ -112,7 +124,10 @@ class Explanation:
         return self.problem.to_networkx().subgraph(names[v] for v in self.obstruction).copy()
 
     def core_json(self) -> list[dict]:
-        return [r.to_json(self.problem.items) for r in self.core or []]
+        """The core's members: ``{"kind", "pair", "text"}`` (``text`` in the one wording)."""
+        names = self.problem.items
+        return [{**r.to_json(names), "text": requirement_text(r, names)}
+                for r in self.core or []]
 
     def derivation_json(self) -> list[dict] | None:
         if self.steps is None:
@@ -125,6 +140,9 @@ class Explanation:
         doc: dict[str, Any] = {"status": self.status}
         if self.core is not None:
             doc["core"] = self.core_json()
+            doc["minimal"] = self.minimal
+        if self.stopped is not None:
+            doc["stopped"] = self.stopped
         if self.obstruction is not None:
             doc["obstruction"] = [names[v] for v in self.obstruction]
         if self.steps is not None:
@@ -135,6 +153,7 @@ class Explanation:
             doc["repairs"] = [
                 {
                     "drop": [r.to_json(names) for r in rep.drop],
+                    "text": repair_text(rep.drop, names),
                     "order": None if rep.succ is None else
                     [[names[a], names[b]] for a, s in enumerate(rep.succ) for b in sorted(s)],
                     "verified": rep.verified,
@@ -144,7 +163,7 @@ class Explanation:
             ]
         if self.notes:
             doc["notes"] = self.notes
-        doc["items"] = self.problem.n
+        doc["item_count"] = self.problem.n
         doc["comparable_pairs"] = self.problem.num_comparable
         doc["verified"] = self.verified
         doc["stats"] = self.stats
@@ -168,13 +187,13 @@ def _chain_core(problem: Problem, items: list[int]) -> list[Requirement]:
     return list(core)
 
 
-def _engine_core(problem: Problem, time_limit: float):
+def _engine_core(problem: Problem, time_limit: float, solver: str | None = None):
     """The project's solver on a problem too large for the all-triples oracle: ``"feasible"``
     (its order verified), an infeasible core and whether it is minimal, or ``None``."""
     from satorder.pipeline.solve import solve
 
     try:
-        ans = solve(problem, time_limit=time_limit)
+        ans = solve(problem, solver=solver, time_limit=time_limit)
     except ImportError:
         return None
     if ans.status == FEASIBLE:
@@ -212,6 +231,33 @@ def minimal_core_of(answer) -> list[Requirement] | None:
 
 
 # ---------------------------------------------------------------------- main entry
+def _shrink(start: list[Requirement], deadline: float | None):
+    """A minimal core inside the infeasible ``start`` and ``None``, or, when the deadline or
+    Ctrl-C cut the shrinking short, the smallest infeasible subset reached and the reason."""
+    try:
+        with core_oracle(start, deadline=deadline) as oracle:
+            return [start[k] for k in minimal_core(oracle, range(len(start)))], None
+    except CutShort as cut:
+        return [start[k] for k in cut.current], cut.reason
+
+
+def _cut_short(expl: Explanation, core: list[Requirement], reason: str, t0: float):
+    """Report a core whose shrinking stopped early: infeasible (shown by the oracle, and
+    re-checked independently on few items) but perhaps not minimal."""
+    problem = expl.problem
+    expl.status, expl.core, expl.minimal, expl.stopped = INFEASIBLE, core, False, reason
+    why = "the time limit" if reason == "time-limit" else "Ctrl-C"
+    expl.notes.append(f"{why} stopped the shrinking of the core: these {len(core)} "
+                      "requirements cannot all hold, but some may be dropped")
+    if len(items_of(core)) <= MINIMALITY_CHECK_ITEMS:
+        certify.check_core_infeasible(problem, core)
+        expl.verified = True
+    else:
+        expl.notes.append("the core spans too many items for the independent re-check")
+    expl.stats["seconds"] = round(time.perf_counter() - t0, 6)
+    return expl
+
+
 def explain(
     problem: Problem,
     smallest: bool = False,
@@ -219,6 +265,7 @@ def explain(
     forcing_result: ForcingResult | None = None,
     time_limit: float = 30.0,
     progress=None,
+    solver: str | None = None,
 ) -> Explanation:
     """Explain why ``problem`` admits no order (or say that it does).
 
@@ -226,12 +273,18 @@ def explain(
     other pair to stay unordered).  ``smallest`` asks for a minimum-cardinality core;
     ``repairs`` for up to that many minimal correction sets.  ``forcing_result`` may pass the
     forcing algorithm's outcome on ``problem.adj`` when the caller already has it.
-    ``progress(text)`` is called before each stage.
+    ``progress(text)`` is called before each stage.  ``time_limit`` covers the whole call:
+    shrinking the core first, then the smallest core and the repairs each get what is left.
+    When the time limit or Ctrl-C stops the shrinking, the infeasible set reached so far is
+    returned with ``minimal`` False and ``stopped`` saying why; Ctrl-C during the smallest core
+    or the repairs keeps the minimal core found.  ``solver`` is the back end of the SAT
+    engine's core on problems of more than :data:`ORACLE_ITEMS` items.
     """
     if not isinstance(problem, Problem):
         problem = Problem.from_networkx(problem)
     say = progress or (lambda text: None)
     t0 = time.perf_counter()
+    deadline = time.monotonic() + time_limit
     stats: dict[str, Any] = {}
     expl = Explanation(problem, UNKNOWN, stats=stats)
     small = problem.n <= WHOLE_PROBLEM_ITEMS
@@ -239,7 +292,10 @@ def explain(
     core: list[Requirement] | None = None
     core_witnesses = None
 
-    if problem.incomparable is None:
+    clash = problem.contradictions()
+    if clash:  # two requirements clash on one pair: they are a minimal core already
+        core = list(clash[0])
+    elif problem.incomparable is None:
         say("forcing")
         res = forcing_result or transitive_orientation(problem.adj)
         stats["forcing_seconds"] = round(time.perf_counter() - t0, 6)
@@ -255,8 +311,9 @@ def explain(
                 core_witnesses = minimality_witnesses(start)
                 core = start
             except CertificateError:
-                with core_oracle(start) as oracle:
-                    core = [start[k] for k in minimal_core(oracle, range(len(start)))]
+                core, cut = _shrink(start, deadline)
+                if cut:
+                    return _cut_short(expl, core, cut, t0)
         elif problem.is_plain:
             certify.check_order(problem, res.successor_sets())
             expl.status, expl.verified = FEASIBLE, True
@@ -266,7 +323,7 @@ def explain(
     if core is None:
         say("core")
         if problem.n > ORACLE_ITEMS:
-            found_core = _engine_core(problem, time_limit)
+            found_core = _engine_core(problem, max(0.0, deadline - time.monotonic()), solver)
             if found_core is None:
                 expl.notes.append(f"no verdict: problems with side constraints and more than "
                                   f"{ORACLE_ITEMS} items need the SAT engine's core")
@@ -280,19 +337,32 @@ def explain(
             if engine_minimal:  # the SAT engine's deletion loop finished
                 core = found_core
             else:
-                with core_oracle(found_core) as oracle:
-                    core = [found_core[k] for k in minimal_core(oracle, range(len(found_core)))]
+                core, cut = _shrink(found_core, deadline)
+                if cut:
+                    return _cut_short(expl, core, cut, t0)
     if core is None:
         reqs = requirements(problem)
-        whole_oracle = RequirementOracle(reqs)
-        ok, found = whole_oracle.check(range(len(reqs)))
+        whole_oracle = RequirementOracle(reqs, deadline)
+        try:
+            ok, found = whole_oracle.check(range(len(reqs)))
+        except TimeLimitReached:
+            whole_oracle.close()
+            expl.notes.append("no verdict within the time limit")
+            expl.stopped = "time-limit"
+            stats["seconds"] = round(time.perf_counter() - t0, 6)
+            return expl
         if ok:
             certify.check_order(problem, _closure(problem.n, found))
             expl.status, expl.verified = FEASIBLE, True
             whole_oracle.close()
             stats["seconds"] = round(time.perf_counter() - t0, 6)
             return expl
-        core = [reqs[k] for k in minimal_core(whole_oracle, found)]
+        try:
+            core = [reqs[k] for k in minimal_core(whole_oracle, found)]
+        except CutShort as cut:
+            whole_oracle.close()
+            return _cut_short(expl, [reqs[k] for k in cut.current], cut.reason, t0)
+        whole_oracle.deadline = None  # the smallest core and repairs keep their own clocks
 
     expl.status, expl.core = INFEASIBLE, core
     items = items_of(core)
@@ -310,68 +380,80 @@ def explain(
     check_core(problem, core, replayed=expl.steps is not None, witnesses=core_witnesses)
     stats["core_check_seconds"] = round(time.perf_counter() - t, 6)
 
-    if smallest or repairs:
-        if small:
-            universe_reqs = requirements(problem)
-            scope = "whole problem"
-        else:
-            universe_reqs = requirements(problem, set(items) | set(expl.obstruction or ()))
-            scope = f"requirements among the {len(items_of(universe_reqs))} items of the core"
-        if whole_oracle is None or not small:
-            if whole_oracle is not None:
-                whole_oracle.close()
-            whole_oracle = RequirementOracle(universe_reqs)
-        universe = list(range(len(universe_reqs)))
-        if smallest:
-            say("smallest core")
-            t = time.perf_counter()
-            best, proved = smallest_core(whole_oracle, universe, time_limit=time_limit)
-            info: dict[str, Any] = {"proved": proved, "scope": scope}
-            if best is None and small:  # fall back to the requirements on the core's items
-                local = requirements(problem, set(items) | set(expl.obstruction or ()))
-                with RequirementOracle(local) as oracle:
-                    best, proved = smallest_core(oracle, range(len(local)),
-                                                 time_limit=time_limit / 2)
-                universe_reqs = local
-                info = {"proved": proved, "scope": "requirements among the "
-                        f"{len(items_of(local))} items of the core",
-                        "note": f"the whole-problem search gave up after {time_limit:g} s"}
-            if best is not None:
-                found = [universe_reqs[k] for k in best]
-                info["size"] = len(found)
-                if len(found) < len(core):
-                    expl.core = found
-                    expl.steps = derivation.build_derivation(found)
-                    replay.check_derivation(expl.core_json(), expl.derivation_json())
-                    check_core(problem, found, replayed=True)
+    def left() -> float:
+        return max(0.0, deadline - time.monotonic())
+
+    try:
+        if smallest or repairs:
+            if small:
+                universe_reqs = requirements(problem)
+                scope = "whole problem"
             else:
-                info["note"] = f"gave up after {time_limit:g} s; the core shown is minimal"
-            if not small:
-                info["note"] = ("searched only among requirements on the core's items; "
-                                "a smaller core elsewhere in the problem is not ruled out")
-            stats["smallest_seconds"] = round(time.perf_counter() - t, 6)
-            expl.smallest = info
-        if repairs:
-            say("repairs")
-            t = time.perf_counter()
-            plain_like = problem.incomparable is None and not problem.fixed \
-                and not problem.forbidden
-            if small and not plain_like:
-                found = correction_sets(whole_oracle, universe, repairs, time_limit=time_limit)
-                expl.repairs = [_verify_small_repair(problem, whole_oracle, universe, mcs)
-                                for mcs in found]
-                if len(found) < repairs and time.perf_counter() - t >= time_limit:
-                    expl.notes.append("repairs: time limit reached")
-            elif plain_like or problem.n <= REPAIR_SAT_ITEMS:
-                expl.repairs, notes = _local_repairs(
-                    problem, set(items) | set(expl.obstruction or ()), repairs,
-                    time.monotonic() + time_limit, say)
-                expl.notes += notes
-            else:
-                expl.repairs = []
-                expl.notes.append("repairs are offered for problems whose other pairs must all "
-                                  f"stay unordered, or with up to {REPAIR_SAT_ITEMS} items")
-            stats["repairs_seconds"] = round(time.perf_counter() - t, 6)
+                universe_reqs = requirements(problem, set(items) | set(expl.obstruction or ()))
+                scope = f"requirements among the {len(items_of(universe_reqs))} items of the core"
+            if whole_oracle is None or not small:
+                if whole_oracle is not None:
+                    whole_oracle.close()
+                whole_oracle = RequirementOracle(universe_reqs)
+            universe = list(range(len(universe_reqs)))
+            if smallest:
+                say("smallest core")
+                t = time.perf_counter()
+                given = left()
+                best, proved = smallest_core(whole_oracle, universe, time_limit=given)
+                info: dict[str, Any] = {"proved": proved, "scope": scope}
+                if best is None and small:  # fall back to the requirements on the core's items
+                    local = requirements(problem, set(items) | set(expl.obstruction or ()))
+                    with RequirementOracle(local) as oracle:
+                        best, proved = smallest_core(oracle, range(len(local)),
+                                                     time_limit=left() / 2)
+                    universe_reqs = local
+                    info = {"proved": proved, "scope": "requirements among the "
+                            f"{len(items_of(local))} items of the core",
+                            "note": f"the whole-problem search gave up after {given:g} s"}
+                if best is not None:
+                    found = [universe_reqs[k] for k in best]
+                    info["size"] = len(found)
+                    if len(found) < len(core):  # shown only once checked
+                        steps = derivation.build_derivation(found)
+                        replay.check_derivation(
+                            [r.to_json(problem.items) for r in found],
+                            derivation.to_json(steps, found, problem.items))
+                        check_core(problem, found, replayed=True)
+                        expl.core, expl.steps = found, steps
+                else:
+                    info["note"] = f"gave up after {given:g} s; the core shown is minimal"
+                if not small:
+                    info["note"] = ("searched only among requirements on the core's items; "
+                                    "a smaller core elsewhere in the problem is not ruled out")
+                stats["smallest_seconds"] = round(time.perf_counter() - t, 6)
+                expl.smallest = info
+            if repairs:
+                say("repairs")
+                t = time.perf_counter()
+                plain_like = problem.incomparable is None and not problem.fixed \
+                    and not problem.forbidden
+                if small and not plain_like:
+                    given = left()
+                    found = correction_sets(whole_oracle, universe, repairs, time_limit=given)
+                    expl.repairs = [_verify_small_repair(problem, whole_oracle, universe, mcs)
+                                    for mcs in found]
+                    if len(found) < repairs and time.perf_counter() - t >= given:
+                        expl.notes.append("repairs: time limit reached")
+                elif plain_like or problem.n <= REPAIR_SAT_ITEMS:
+                    expl.repairs, notes = _local_repairs(
+                        problem, set(items) | set(expl.obstruction or ()), repairs,
+                        deadline, say)
+                    expl.notes += notes
+                else:
+                    expl.repairs = []
+                    expl.notes.append("repairs are offered for problems whose other pairs must all "
+                                      f"stay unordered, or with up to {REPAIR_SAT_ITEMS} items")
+                stats["repairs_seconds"] = round(time.perf_counter() - t, 6)
+    except KeyboardInterrupt:  # keep the minimal core found; say what was not finished
+        expl.stopped = "interrupted"
+        expl.notes.append("Ctrl-C stopped the search for a smallest core or repairs; the "
+                          "core shown is minimal")
     if whole_oracle is not None:
         whole_oracle.close()
     expl.verified = True

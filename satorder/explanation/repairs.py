@@ -18,6 +18,7 @@ from satorder.graph.obstruction import (
 )
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE, PAIR_KINDS, Kind, Requirement, items_of
+from satorder.model.wording import requirement_text
 from satorder.sat.mus import (
     RequirementOracle,
     correction_sets,
@@ -34,6 +35,12 @@ class Repair:
     succ: list[set[int]] | None
     verified: bool
     note: str = ""
+
+
+def repair_text(drop: list[Requirement], names: list[str]) -> str:
+    """A repair in words: each requirement to drop, "drop the requirement that …" in the one
+    wording of :func:`satorder.model.wording.requirement_text`, joined by semicolons."""
+    return "; ".join(requirement_text(r, names, form="drop") for r in drop)
 
 
 # ---------------------------------------------------------------------- repairs

@@ -63,6 +63,7 @@ class SettledWhy:
     witnesses: dict[str, list[set[int]]] = field(default_factory=dict)
     notes: list[str] = field(default_factory=list)
     verified: bool = False
+    answer: Any = None  # infeasible problems: the verified answer of solve, with its core
 
     @property
     def settled(self) -> bool:
@@ -90,6 +91,11 @@ class SettledWhy:
             doc["opposite"] = self.core.index(self.opposite)
             doc["derivation"] = (None if self.steps is None
                                  else derivation.to_json(self.steps, self.core, sn))
+        if self.answer is not None and self.status == INFEASIBLE:
+            sub = self.answer.to_json()
+            for key in ("conflict", "core"):
+                if key in sub:
+                    doc[key] = sub[key]
         if self.witnesses:
             doc["witnesses"] = [
                 {"relation": rel, "order": [[names[x], names[y]] for x, s in enumerate(succ)
@@ -113,15 +119,12 @@ def why_settled(problem: Problem, a: str, b: str, time_limit: float = 30.0,
     x, y = idx[a], idx[b]
     hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
     out = SettledWhy(problem, (x, y), UNKNOWN)
+    if hard.contradictions():  # two requirements clash on one pair: no answer at all
+        return _no_answer(out, hard, solver, time_limit)
     if y not in hard.adj[x] and hard.must_be_unordered(x, y):
         # settled by a requirement of its own: the opposite contradicts it at once
-        from satorder.pipeline.solve import solve
-
-        verdict = solve(hard, solver=solver, time_limit=time_limit).status
-        if verdict != FEASIBLE:
-            out.status = verdict
-            if verdict == INFEASIBLE:
-                out.notes.append("the problem has no answer at all; satorder explain says why")
+        out = _no_answer(out, hard, solver, time_limit)
+        if out.status != FEASIBLE:
             return out
         out.status, out.possible = FEASIBLE, {UNORDERED}
         out.opposite = Requirement(Kind.COMPARABLE, (x, y))
@@ -136,9 +139,7 @@ def why_settled(problem: Problem, a: str, b: str, time_limit: float = 30.0,
     sup = pair_support(hard, [(x, y)], solver=solver)
     out.possible = sup.possible[(x, y)]
     if not out.possible:
-        out.status = INFEASIBLE
-        out.notes.append("the problem has no answer at all; satorder explain says why")
-        return out
+        return _no_answer(out, hard, solver, time_limit)
     out.status = FEASIBLE
     for succ in sup.witnesses:
         check_order(hard, succ)
@@ -168,6 +169,19 @@ def why_settled(problem: Problem, a: str, b: str, time_limit: float = 30.0,
         return out
     out.status = UNKNOWN
     out.notes.append("no core was found within the limits")
+    return out
+
+
+def _no_answer(out: SettledWhy, problem: Problem, solver, time_limit) -> SettledWhy:
+    """The verdict of ``solve`` on the whole problem: when it has no answer, its verified core
+    (or forcing chain) says why, and no pair is settled or free."""
+    from satorder.pipeline.solve import solve
+
+    ans = solve(problem, solver=solver, time_limit=time_limit)
+    out.status = ans.status
+    if ans.status == INFEASIBLE:
+        out.possible, out.answer, out.verified = set(), ans, ans.verified
+        out.notes.append("the problem has no answer at all; satorder explain says why")
     return out
 
 

@@ -39,6 +39,8 @@ Families (plain problems unless noted):
 * ``preferences`` — a random order's comparability graph with weighted preferences, all
   consistent with the hidden order (optimal cost 0) or random (cost at most the hidden
   order's).
+* ``merged-evidence`` — two sources' reports on one hidden order, merged, with ``disagree``
+  pairs on which they contradict each other (:mod:`satorder.generate.merged`).
 
 Large edge-list instances for performance work are written by :func:`write_random_bipartite`
 and :func:`write_dense_orders` in seconds.
@@ -64,6 +66,7 @@ from satorder.generate.instance import (
     _neighbours,
     _order_pairs,
 )
+from satorder.generate.merged import merged_evidence
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
 
 
@@ -435,6 +438,7 @@ FAMILIES = {
     "side-constraints": side_constraints,
     "open-pairs": open_pairs,
     "preferences": preferences,
+    "merged-evidence": merged_evidence,
 }
 
 
@@ -453,6 +457,8 @@ ABOUT = {
                         "cycle|forcing|any makes it infeasible",
     "open-pairs": "only some pairs named (keep); conflict=true plants a 5-cycle",
     "preferences": "weighted preferences (count); consistent=true: optimal cost 0",
+    "merged-evidence": "two sources' reports merged (keep, fixed_share); disagree=k plants k "
+                       "pairs they contradict each other on; infeasible then",
 }
 
 

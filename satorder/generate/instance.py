@@ -19,7 +19,8 @@ class Instance:
 
     ``us``/``vs`` are the comparable pairs (parallel lists).  ``incomparable`` ``None`` means
     every other pair must stay unordered; otherwise it lists those pairs and the rest are open.
-    ``names[i]`` is the item's written name.
+    ``names[i]`` is the item's written name.  The lists are written as given, repeats and
+    clashes included (the ``merged-evidence`` family has both).
     """
 
     family: str
@@ -39,10 +40,13 @@ class Instance:
     cost_at_most: int | None = None
     planted: list[int] | None = None
     planted_kind: str | None = None
+    comparable_pairs: int | None = None  # distinct comparable pairs, when us/vs repeat some
 
     @property
     def num_pairs(self) -> int:
-        return len(self.us)
+        """Comparable pairs of the problem (``us``/``vs`` may name one twice, as merged
+        evidence does; then ``comparable_pairs`` holds the distinct count)."""
+        return len(self.us) if self.comparable_pairs is None else self.comparable_pairs
 
     @property
     def is_plain(self) -> bool:
@@ -90,7 +94,7 @@ class Instance:
             "family": self.family,
             "seed": self.seed,
             "params": self.params,
-            "items": self.n,
+            "item_count": self.n,
             "comparable_pairs": self.num_pairs,
             "expected_status": self.expected_status,
             "expected_count": self.expected_count,

@@ -43,6 +43,10 @@ RECIPES: dict[str, list[dict]] = {
         + suite_specs("open-pairs", [12], [1], conflict=True)
         + suite_specs("preferences", [8, 12], [1], count=5, consistent=True)
         + suite_specs("preferences", [8, 12], [1], count=5)
+        + suite_specs("merged-evidence", [12, 16], [1])
+        + suite_specs("merged-evidence", [12], [1, 2], disagree=1)
+        + suite_specs("merged-evidence", [16], [1], disagree=4)
+        + suite_specs("merged-evidence", [20], [1], disagree=2)
     ),
     # hundreds to a few thousand items, still small files
     "medium": (

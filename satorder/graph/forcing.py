@@ -23,6 +23,10 @@ How it is computed here (near-linear work in practice):
   shortcut wherever an arc forces a later one directly, is a chain of forcing steps from an arc
   to its own reverse, each step naming its witness pair (a pair that must stay unordered) —
   the conflict certificate.
+* Graphs with fewer than :data:`KERNELS_FROM` edges take a pure-Python path (lists, no numpy
+  nor numba: milliseconds at that size, where loading those libraries costs far more); it
+  computes the same ties, classes and orientation, and hands a conflict to the array path,
+  which finds the chain.
 * Without conflict, each class is oriented by a consistent rule: keep the class whose smallest
   tail item is smaller than its smallest head item.  By Gallai's modular decomposition theorem
   the classes are the pairs of children of series nodes (where this rule orders the children
@@ -40,13 +44,24 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from itertools import chain
+from typing import TYPE_CHECKING, Any
 
-import numpy as np
+from satorder.jit import HAVE_NUMBA
 
-from satorder.graph import kernels as _kernels
+if TYPE_CHECKING:  # numpy is imported where arrays are made: small graphs never load it
+    import numpy as np
 
 Arc = tuple[int, int]
 CHAIN_TRIES = 8  # conflicting edges tried as chain starts; the shortest chain is kept
+# below this many comparable pairs the pure-Python twins of the kernels run: they take
+# milliseconds there, while loading numba and its compiled kernels takes about a second
+KERNELS_FROM = 20_000
+
+
+def use_kernels(pairs: int) -> bool:
+    """Whether the compiled kernels pay off for a graph with ``pairs`` edges (numba present and
+    the graph at least :data:`KERNELS_FROM` edges); small problems never load numba."""
+    return HAVE_NUMBA and pairs >= KERNELS_FROM
 
 
 @dataclass
@@ -64,22 +79,30 @@ class ForcingResult:
 
     n: int
     orientable: bool
-    lo: np.ndarray  # lo[e] < hi[e]: the endpoints of edge e
-    hi: np.ndarray
-    up: np.ndarray | None  # up[e] True: edge e oriented lo→hi
+    lo: Any  # lo[e] < hi[e]: the endpoints of edge e (numpy arrays, or lists on small graphs)
+    hi: Any
+    up: Any  # up[e] True: edge e oriented lo→hi; None when not orientable
     num_classes: int  # implication classes (each counted with its reverse as one colour class)
     chain: list[ForcingStep] | None  # conflict certificate when not orientable
 
     def arcs(self):
         """The arcs of the transitive orientation (orientable graphs only)."""
         assert self.up is not None
-        lo, hi, up = self.lo.tolist(), self.hi.tolist(), self.up.tolist()
+        lo, hi, up = (x.tolist() if hasattr(x, "tolist") else x
+                      for x in (self.lo, self.hi, self.up))
         for a, b, u in zip(lo, hi, up):
             yield (a, b) if u else (b, a)
 
     def successor_sets(self) -> list[set[int]]:
         """The orientation as successor sets (a transitive orientation is its own closure)."""
         assert self.up is not None
+        if isinstance(self.up, list):
+            succ: list[set[int]] = [set() for _ in range(self.n)]
+            for a, b in self.arcs():
+                succ[a].add(b)
+            return succ
+        import numpy as np
+
         tails = np.where(self.up, self.lo, self.hi)
         heads = np.where(self.up, self.hi, self.lo)
         order = np.argsort(tails, kind="stable")
@@ -92,6 +115,8 @@ class ForcingResult:
 def _edge_arrays(adj: list[set[int]]):
     """Endpoints ``lo < hi`` of every edge, sorted by the key ``lo * n + hi`` (the edge id is
     the rank of its key, found with ``searchsorted``: no per-pair dictionary)."""
+    import numpy as np
+
     n = len(adj)
     deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
     src = np.repeat(np.arange(n, dtype=np.int64), deg)
@@ -135,10 +160,15 @@ def gamma_steps(adj: list[set[int]], unordered: list[set[int]] | None = None,
                 compiled: bool | None = None):
     """Arrays (v, y, x), one row per spanning Γ step around each item v: arcs at v of edges
     {v, y} and {v, x} are oriented alike because {y, x} must stay unordered (every non-adjacent
-    pair, or only the pairs of ``unordered``).  Compiled kernel when numba is available."""
+    pair, or only the pairs of ``unordered``).  Compiled kernel when numba is available and
+    the graph is large enough (:func:`use_kernels`), unless ``compiled`` says otherwise."""
+    import numpy as np
+
     if compiled is None:
-        compiled = _kernels.HAVE_NUMBA
+        compiled = use_kernels(sum(map(len, adj)) // 2)
     if compiled:
+        from satorder.graph import kernels as _kernels
+
         indptr, indices = _kernels.csr(adj)
         if unordered is None:
             uptr, uidx = indptr[:1], indices[:0]
@@ -154,6 +184,8 @@ def implication_ties(adj: list[set[int]], unordered: list[set[int]] | None = Non
     """Edges and Γ ties in array form: ``lo, hi, keys`` (edge e joins lo[e] < hi[e], sorted by
     ``keys = lo * n + hi``) and ``e1, e2, flip`` (edges e1 and e2 tied; ``flip`` when "alike"
     means opposite lo→hi senses).  The tie graph's components are the implication classes."""
+    import numpy as np
+
     n = len(adj)
     lo, hi, keys = _edge_arrays(adj)
     vs, ys, xs = gamma_steps(adj, unordered)
@@ -169,13 +201,19 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     ``adj[v]`` is the set of neighbours of ``v``; the graph is simple and undirected.
     Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``.
     """
+    if sum(map(len, adj)) // 2 < KERNELS_FROM:
+        res = _orient_small(adj)
+        if res is not None:
+            return res
+    import numpy as np
+
     n = len(adj)
     lo, hi, keys, e1, e2, fl = implication_ties(adj)
     m = len(lo)
     if m == 0:
         return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
-    ncomp, comp = _components(m, e1, e2, fl)
+    ncomp, comp = tie_components(m, e1, e2, fl)
     c0 = comp[0::2]
     c1 = comp[1::2]
     bad = np.flatnonzero(c0 == c1)
@@ -202,17 +240,81 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     return ForcingResult(n, True, lo, hi, up, ncomp // 2, None)
 
 
-def _components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
-    """Components of the doubled tie graph: compiled union-find, or scipy without numba."""
-    if _kernels.HAVE_NUMBA:
+def tie_components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
+    """Components of the doubled tie graph (node ``2e`` edge e as lo→hi, ``2e+1`` its
+    reverse): ``(count, label of each node)``.  Compiled union-find on large graphs, its
+    pure-Python twin on small ones, scipy on large graphs without numba."""
+    import numpy as np
+
+    if use_kernels(m):
+        from satorder.graph import kernels as _kernels
+
         return _kernels.doubled_components(m, e1, e2, fl)
+    if m < KERNELS_FROM:
+        count, comp = _doubled_components_py(m, e1.tolist(), e2.tolist(), fl.tolist())
+        return count, np.asarray(comp, dtype=np.int64)
     from scipy.sparse.csgraph import connected_components
 
     return connected_components(tie_graph(m, e1, e2, fl), directed=False)
 
 
+
+def _doubled_components_py(m: int, e1: list[int], e2: list[int], flip: list[int]):
+    """Pure-Python twin of :func:`satorder.graph.kernels.doubled_components` (the tests
+    compare the two): union-find with path halving, labels 0..k-1 in order of first node."""
+    parent = list(range(2 * m))
+
+    def find(x: int) -> int:
+        while parent[x] != x:
+            parent[x] = parent[parent[x]]
+            x = parent[x]
+        return x
+
+    for i, j, f in zip(e1, e2, flip):
+        for a, b in ((2 * i, 2 * j + f), (2 * i + 1, 2 * j + 1 - f)):
+            ra, rb = find(a), find(b)
+            if ra != rb:
+                parent[max(ra, rb)] = min(ra, rb)
+    label: dict[int, int] = {}
+    comp = [label.setdefault(find(x), len(label)) for x in range(2 * m)]
+    return len(label), comp
+
+
+def _orient_small(adj: list[set[int]]) -> ForcingResult | None:
+    """The forcing algorithm on plain lists, for small graphs: the same edges (sorted by
+    ``lo * n + hi``), Γ ties, classes and orientation rule as the array path, so the same
+    answer; ``None`` on a conflict (the array path then finds the chain)."""
+    n = len(adj)
+    lo: list[int] = []
+    hi: list[int] = []
+    for a, nb in enumerate(adj):
+        for b in sorted(nb):
+            if a < b:
+                lo.append(a)
+                hi.append(b)
+    m = len(lo)
+    eid = {a * n + b: k for k, (a, b) in enumerate(zip(lo, hi))}
+    vs, ys, xs = _co_components_py(adj)
+    e1 = [eid[min(v, y) * n + max(v, y)] for v, y in zip(vs, ys)]
+    e2 = [eid[min(v, x) * n + max(v, x)] for v, x in zip(vs, xs)]
+    fl = [int((v < y) != (v < x)) for v, y, x in zip(vs, ys, xs)]
+    count, comp = _doubled_components_py(m, e1, e2, fl)
+    c0, c1 = comp[0::2], comp[1::2]
+    if any(p == q for p, q in zip(c0, c1)):
+        return None
+    big = n + 1
+    mintail, minhead = [big] * count, [big] * count
+    for a, b, p, q in zip(lo, hi, c0, c1):
+        mintail[p], minhead[p] = min(mintail[p], a), min(minhead[p], b)
+        mintail[q], minhead[q] = min(mintail[q], b), min(minhead[q], a)
+    up = [mintail[p] < minhead[p] or (mintail[p] == minhead[p] and p < q)
+          for p, q in zip(c0, c1)]
+    return ForcingResult(n, True, lo, hi, up, count // 2, None)
+
+
 def tie_graph(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
     """The doubled tie graph as a scipy sparse matrix (2m nodes)."""
+    import numpy as np
     from scipy.sparse import coo_matrix
 
     src = np.concatenate([2 * e1, 2 * e1 + 1])

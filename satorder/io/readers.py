@@ -11,8 +11,7 @@ from __future__ import annotations
 import difflib
 import json
 import os
-
-import numpy as np
+from typing import TYPE_CHECKING
 
 from satorder.errors import InputError
 from satorder.model.problem import Problem, ProblemBuilder
@@ -21,6 +20,10 @@ MAX_BYTES = 1 << 30  # 1 GiB: beyond this a file is refused rather than exhausti
 JSON_KEYS = ("items", "comparable", "incomparable", "fixed", "forbidden", "prefer", "weights",
              "version", "comment")
 PREFER_KEYS = ("before", "after", "weight")
+SMALL_TEXT = 1 << 16  # edge lists up to this many characters are read line by line, no numpy
+
+if TYPE_CHECKING:
+    import numpy as np
 
 
 def read_problem(path: str | os.PathLike) -> Problem:
@@ -116,6 +119,8 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
         raise InputError(f'{source}: "items" must be a list of item names')
     for k, name in enumerate(items):
         b.item(_name(name, f"items[{k}]", source), f"items[{k}]")
+    if "items" in doc:  # an explicit list: every name used elsewhere must be in it
+        b.close_items()
     for a, c, where in _pairs(doc, "comparable", source):
         b.comparable(a, c, where)
     incomp = doc.get("incomparable", "others")
@@ -176,6 +181,10 @@ def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
     """
     if "#" in text:
         text = "\n".join(ln.split("#", 1)[0] for ln in text.split("\n"))
+    if len(text) <= SMALL_TEXT:
+        return _parse_small_edge_list(text, source)
+    import numpy as np
+
     tokens = text.split()
     per_line = _fields_per_line(text, tokens)
     bad = np.flatnonzero((per_line != 0) & (per_line != 2))
@@ -210,6 +219,73 @@ def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
     adj = [set(dst_l[s:e]) for s, e in zip(starts, ends)]
     p = Problem(items=items, adj=adj, source=source)
     p._index = index
+    repeats = len(a) - p.num_comparable
+    if repeats:
+        p.notes.append(_repeat_note(text, a, b, n, repeats, source))
+    return p
+
+
+def _repeat_note(text: str, a: np.ndarray, b: np.ndarray, n: int, repeats: int,
+                 source: str) -> str:
+    """The note for pairs given more than once in an edge list (either way round), naming the
+    first repeat and the line it repeats."""
+    import numpy as np
+
+    keys = np.minimum(a, b) * n + np.maximum(a, b)
+    _, first, inverse = np.unique(keys, return_index=True, return_inverse=True)
+    k = int(np.flatnonzero(first[inverse] != np.arange(len(keys)))[0])
+    line, earlier = _line_of_pair(text, k), _line_of_pair(text, int(first[inverse[k]]))
+    s = "s" if repeats > 1 else ""
+    return (f"{source}: {repeats} repeated pair{s} merged, each counted once (line {line} "
+            f"repeats line {earlier}{' and more' if repeats > 1 else ''})")
+
+
+def _bad_fields(source: str, line: int, fields: int) -> InputError:
+    return InputError(
+        f"{source}: line {line}: expected two item names, found {fields} field"
+        f"{'s' if fields != 1 else ''}; write one pair per line as 'a b'"
+    )
+
+
+def _parse_small_edge_list(text: str, source: str) -> Problem:
+    """:func:`parse_edge_list` for a small text (comments already removed), line by line in
+    plain Python: the same problem and the same errors, without loading numpy."""
+    rows = [ln.split() for ln in text.split("\n")]
+    for number, fields in enumerate(rows, 1):
+        if len(fields) not in (0, 2):
+            raise _bad_fields(source, number, len(fields))
+    pairs = [(number, fields) for number, fields in enumerate(rows, 1) if fields]
+    if not pairs:
+        raise InputError(f"{source}: no pairs found; write one pair per line as 'a b'")
+    index: dict[str, int] = {}
+    for _, (a, b) in pairs:
+        index.setdefault(a, len(index))
+        index.setdefault(b, len(index))
+    items = list(index)
+    adj: list[set[int]] = [set() for _ in items]
+    first_line: dict[tuple[int, int], int] = {}
+    repeats, first_repeat = 0, None
+    for number, (a, b) in pairs:
+        if a == b:
+            raise InputError(f"{source}: line {number}: pair names {a!r} twice; "
+                             "a pair needs two different items")
+        i, j = index[a], index[b]
+        key = (min(i, j), max(i, j))
+        if key in first_line:
+            repeats += 1
+            if first_repeat is None:
+                first_repeat = (number, first_line[key])
+            continue
+        first_line[key] = number
+        adj[i].add(j)
+        adj[j].add(i)
+    p = Problem(items=items, adj=adj, source=source)
+    p._index = index
+    if repeats:
+        line, earlier = first_repeat
+        s = "s" if repeats > 1 else ""
+        p.notes.append(f"{source}: {repeats} repeated pair{s} merged, each counted once (line "
+                       f"{line} repeats line {earlier}{' and more' if repeats > 1 else ''})")
     return p
 
 
@@ -217,6 +293,8 @@ def _fields_per_line(text: str, tokens: list[str]) -> np.ndarray:
     """Number of whitespace-separated fields on each line, from the raw bytes with numpy (no
     per-line Python work).  Exact: if the byte-level token count differs from ``str.split``'s
     (only possible with non-ASCII white space) the lines are counted one by one."""
+    import numpy as np
+
     raw = np.frombuffer(text.encode("utf-8"), dtype=np.uint8)
     # str.split's ASCII white space: \t \n \v \f \r, \x1c-\x1f and the space
     space = (raw == 32) | ((raw >= 9) & (raw <= 13)) | ((raw >= 28) & (raw <= 31))

@@ -10,6 +10,14 @@ May import: :mod:`satorder.pipeline`, :mod:`satorder.sat`, :mod:`satorder.graph`
 the file layer; only the summary calls the checkers.
 """
 
-from satorder.measure.summary import Measures, measure
-
 __all__ = ["Measures", "measure"]
+
+
+def __getattr__(name: str):
+    """``Measures`` and ``measure`` are imported on first use, so that code needing only
+    :mod:`~satorder.measure.figures` (the text rendering of an answer) starts quickly."""
+    if name in __all__:
+        from satorder.measure import summary
+
+        return getattr(summary, name)
+    raise AttributeError(f"module 'satorder.measure' has no attribute {name!r}")

@@ -33,8 +33,6 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-import numpy as np
-
 from satorder.model import order as order_ops
 
 
@@ -132,6 +130,7 @@ def max_weight_chain(succ: list[set[int]], weights: list[int]) -> Figure:
 
 def _bipartite(succ):
     """CSR matrix of the bipartite graph x_left — y_right for x < y."""
+    import numpy as np
     from scipy.sparse import csr_matrix
 
     n = len(succ)
@@ -185,6 +184,7 @@ def width(succ: list[set[int]]) -> Figure:
 def max_weight_antichain(succ: list[set[int]], weights: list[int]) -> Figure:
     """An antichain of largest total weight, read off a minimum cut, with the maximum flow as
     its certificate (weighted Dilworth; Ford & Fulkerson 1962)."""
+    import numpy as np
     from scipy.sparse import csr_matrix
     from scipy.sparse.csgraph import breadth_first_order, maximum_flow
 

@@ -67,7 +67,7 @@ class Measures:
             "height": self.height.value,
             "width": self.width.value,
             "dimension": self.dimension.value,
-            "items": self.n,
+            "item_count": self.n,
             "ordered_pairs": self.pairs,
             "longest_chain": nm(self.height.witness),
             "largest_antichain": nm(self.width.witness),

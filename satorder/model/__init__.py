@@ -2,8 +2,11 @@
 
 Holds :mod:`~satorder.model.problem` (items and requirements, validated on construction),
 :mod:`~satorder.model.requirement` (the typed requirement, its kinds and JSON form, and the
-status enum), :mod:`~satorder.model.answer` (what every engine returns, and its JSON form) and
-:mod:`~satorder.model.order` (small operations on orders stored as successor sets).
+status enum), :mod:`~satorder.model.answer` (what every engine returns, and its JSON form),
+:mod:`~satorder.model.order` (small operations on orders stored as successor sets),
+:mod:`~satorder.model.order_views` (levels, covering pairs and a sequence of an order, and their
+JSON text), :mod:`~satorder.model.outcome` (how each requirement came out in an answer) and
+:mod:`~satorder.model.wording` (the one wording of a requirement for people).
 
 May import: :mod:`satorder.errors`, :mod:`satorder.jit`.  Everything else may import the model.
 """

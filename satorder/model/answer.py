@@ -6,8 +6,10 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from satorder.model import order as order_ops
+from satorder.model import order_views, outcome
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, Requirement, Status
+from satorder.model.wording import requirement_text
 
 
 @dataclass
@@ -53,6 +55,23 @@ class Answer:
     def covering_pairs(self) -> list[tuple[int, int]]:
         return order_ops.covering_pairs(self.succ or [])
 
+    def views(self) -> dict[str, list]:
+        """``levels`` (lists of item names, level 1 first), ``covering`` (covering pairs
+        ``[lower, upper]``) and ``sequence`` (one linear extension) of a feasible answer
+        (:mod:`satorder.model.order_views`)."""
+        names = self.problem.items
+        level = order_views.level_numbers(self.succ)
+        lv = order_views.levels(self.succ, level)
+        return {"levels": [[names[a] for a in row] for row in lv],
+                "covering": [[names[a], names[b]]
+                             for a, b in order_views.covering_pairs(self.succ, level)],
+                "sequence": [names[a] for row in lv for a in row]}
+
+    def requirement_rows(self) -> list[dict[str, Any]]:
+        """How each fixed arc, forbidden arc, open pair and preference came out in a feasible
+        answer (:func:`satorder.model.outcome.requirement_rows`)."""
+        return outcome.requirement_rows(self.problem, self.succ)
+
     def to_networkx(self):
         """The order as a networkx DiGraph on item names (an arc for every ordered pair)."""
         import networkx as nx
@@ -64,7 +83,9 @@ class Answer:
 
     def to_json_text(self) -> str:
         """The JSON document as one line of text; the (possibly huge) ``order`` list is written
-        directly from the successor sets instead of through millions of small lists."""
+        directly from the successor sets instead of through millions of small lists, and so
+        are the ``levels``, ``covering`` and ``sequence`` views
+        (:func:`satorder.model.order_views.views_json`)."""
         import json
 
         doc = self.to_json(include_order=False)
@@ -78,15 +99,26 @@ class Answer:
                 parts.append(",".join([qa + q[b] + "]" for b in s]))
         head = json.dumps({"status": doc.pop("status")}, separators=(",", ":"))[:-1]
         rest = json.dumps(doc, separators=(",", ":"))[1:]
-        return head + ',"order":[' + ",".join(parts) + "]," + rest + "\n"
+        # --- views of the order (levels, covering, sequence): see satorder.model.order_views
+        views = order_views.views_json(self.succ, q)
+        return "".join((head, ',"order":[', ",".join(parts), "],", views, ",", rest, "\n"))
 
     def to_json(self, include_order: bool = True) -> dict[str, Any]:
-        """The machine-readable answer (fields fixed by the CLI contract, extras welcome)."""
+        """The machine-readable answer (fields fixed by the CLI contract, extras welcome).
+        ``include_order=False`` leaves out ``order`` and its views (``levels``, ``covering``,
+        ``sequence``), which :meth:`to_json_text` writes straight from the successor sets."""
         p = self.problem
         names = p.items
         doc: dict[str, Any] = {"status": self.status, "engine": self.engine}
         if self.succ is not None and include_order:
             doc["order"] = self.named_pairs()
+            doc.update(self.views())
+        if self.succ is not None:
+            # --- how each fixed / forbidden arc, open pair and preference came out
+            doc["requirements"] = self.requirement_rows()
+            hidden = p.num_open - outcome.OPEN_ROWS
+            if hidden > 0:
+                doc["requirements_omitted"] = {"open": hidden}
         if self.cost is not None:
             doc["cost"] = self.cost
         if self.optimal is not None:
@@ -108,8 +140,9 @@ class Answer:
                 for s in self.chain
             ]
         if self.core is not None:
-            doc["core"] = [r.to_json(names) for r in self.core]
-        doc["items"] = p.n
+            doc["core"] = [{**r.to_json(names), "text": requirement_text(r, names)}
+                           for r in self.core]
+        doc["item_count"] = p.n  # not "items": in a problem file that is the list of names
         doc["comparable_pairs"] = p.num_comparable
         doc["verified"] = self.verified
         doc["stats"] = self.stats

@@ -14,14 +14,24 @@ kept as an adjacency list of integer sets (``adj``), which is compact and fast a
 ``incomparable is None`` means ``"others"``: every pair that is not comparable must stay unordered
 (the plain comparability-graph case).  Otherwise ``incomparable`` is an adjacency list of the pairs
 that must stay unordered, and all remaining pairs are open.
+
+Requirements may contradict each other on a single pair — an arc fixed both ways, an arc both
+fixed and forbidden, a fixed arc on a pair that must stay unordered, a pair listed both as
+comparable and as incomparable.  Such a problem is well formed and simply has no answer:
+:meth:`Problem.contradictions` names each clash as two requirements, which the engines report
+as a core like any other.  Exact repeats of one requirement are merged by
+:class:`ProblemBuilder`, which records a note about them in ``Problem.notes`` (the command line
+prints it on standard error).
 """
 
 from __future__ import annotations
 
+import difflib
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
 
 from satorder.errors import InputError
+from satorder.model.requirement import Kind, Requirement
 
 Arc = tuple[int, int]
 
@@ -45,6 +55,7 @@ class Problem:
     prefer: list[tuple[int, int, int]] = field(default_factory=list)
     weights: dict[int, int] | None = None
     source: str = "<problem>"
+    notes: list[str] = field(default_factory=list, repr=False, compare=False)
     _index: dict[str, int] | None = field(default=None, repr=False, compare=False)
 
     # ------------------------------------------------------------------ basic facts
@@ -71,10 +82,19 @@ class Problem:
         return sum(len(s) for s in self.incomparable) // 2
 
     @property
-    def has_open_pairs(self) -> bool:
+    def num_open(self) -> int:
+        """Pairs named nowhere, which the answer may order either way or leave unordered
+        (none under ``"others"``).  A pair listed both as comparable and as incomparable is
+        counted once, as named."""
         if self.incomparable is None:
-            return False
-        return self.num_comparable + self.num_incomparable < self.n * (self.n - 1) // 2
+            return 0
+        both = sum(len(s & self.adj[a]) for a, s in enumerate(self.incomparable)) // 2
+        named = self.num_comparable + self.num_incomparable - both
+        return self.n * (self.n - 1) // 2 - named
+
+    @property
+    def has_open_pairs(self) -> bool:
+        return self.num_open > 0
 
     @property
     def is_plain(self) -> bool:
@@ -119,6 +139,38 @@ class Problem:
     def is_open(self, a: int, b: int) -> bool:
         return b not in self.adj[a] and not self.must_be_unordered(a, b)
 
+    def contradictions(self) -> list[tuple[Requirement, Requirement]]:
+        """Pairs of requirements that clash on a single pair, with no reasoning needed: an arc
+        fixed both ways, an arc both fixed and forbidden, a fixed arc on a pair that must stay
+        unordered, a pair listed both as comparable and as incomparable.  Each clash is a core
+        of two requirements (dropping either one removes it).  Costs one pass over the fixed
+        and forbidden arcs and the listed unordered pairs.
+
+        >>> p = Problem.from_lists(fixed=[("kiln", "loom"), ("loom", "kiln")])
+        >>> [(r.kind.value, p.names(r.pair)) for r in p.contradictions()[0]]
+        [('fixed', ['kiln', 'loom']), ('fixed', ['loom', 'kiln'])]
+        """
+        out: list[tuple[Requirement, Requirement]] = []
+        fixed = set(self.fixed)
+        for a, b in self.fixed:
+            if a < b and (b, a) in fixed:
+                out.append((Requirement(Kind.FIXED, (a, b)), Requirement(Kind.FIXED, (b, a))))
+        for arc in self.forbidden:
+            if arc in fixed:
+                out.append((Requirement(Kind.FIXED, arc), Requirement(Kind.FORBIDDEN, arc)))
+        if self.incomparable is not None:
+            fixed_on: dict[Arc, Arc] = {}
+            for a, b in self.fixed:
+                fixed_on.setdefault((min(a, b), max(a, b)), (a, b))
+            for a, s in enumerate(self.incomparable):
+                for b in sorted(s & self.adj[a]):
+                    if a < b:
+                        arc = fixed_on.get((a, b))
+                        first = (Requirement(Kind.COMPARABLE, (a, b)) if arc is None
+                                 else Requirement(Kind.FIXED, arc))
+                        out.append((first, Requirement(Kind.INCOMPARABLE, (a, b))))
+        return out
+
     def name(self, i: int) -> str:
         return self.items[i]
 
@@ -138,9 +190,11 @@ class Problem:
         weights: dict[str, int] | None = None,
         source: str = "<problem>",
     ) -> Problem:
-        """Build and validate a problem from Python lists of item names.
+        """Build and validate a problem from Python lists of item names (``items`` adds items
+        that appear in no requirement).
 
-        Raises :class:`InputError` for contradictory or malformed entries.
+        Raises :class:`InputError` for malformed entries; contradicting ones are kept (see
+        :meth:`contradictions`).
         """
         b = ProblemBuilder(source)
         for name in items:
@@ -205,6 +259,7 @@ class Problem:
             prefer=list(self.prefer),
             weights=None if self.weights is None else dict(self.weights),
             source=self.source,
+            notes=list(self.notes),
         )
         for k, v in changes.items():
             setattr(p, k, v)
@@ -215,7 +270,10 @@ class ProblemBuilder:
     """Incremental, validating construction of a :class:`Problem` (used by every reader).
 
     ``where`` strings name the entry (``"comparable[3]"``, ``"line 17"``) so that every error
-    message points at the exact place in the user's input.
+    message points at the exact place in the user's input.  Malformed entries raise
+    :class:`InputError`; contradicting ones are kept (:meth:`Problem.contradictions`); an exact
+    repeat of a requirement is merged and counted in one note.  After :meth:`close_items`,
+    a name that is not yet an item is bad input, with the nearest known name suggested.
     """
 
     def __init__(self, source: str = "<problem>"):
@@ -228,23 +286,47 @@ class ProblemBuilder:
         self._forbidden: dict[Arc, str] = {}
         self._prefer: list[tuple[int, int, int]] = []
         self.weights: dict[int, int] | None = None
-        self._comp_where: dict[Arc, str] = {}
+        self._comparable: dict[Arc, str] = {}
         self._incomp_where: dict[Arc, str] = {}
+        self._closed: str | None = None  # the entry that listed every item, once closed
+        self._repeats: list[tuple[str, str]] = []  # (where, where first given)
+        self._repeat_count = 0
+        self._notes: list[str] = []
 
     def error(self, where: str, msg: str) -> InputError:
         return InputError(f"{self.source}: {where}: {msg}")
+
+    def close_items(self, listed_in: str = '"items"') -> None:
+        """From now on only the items already named are items: any other name is bad input."""
+        self._closed = listed_in
 
     def item(self, name, where: str) -> int:
         if not isinstance(name, str) or not name:
             raise self.error(where, f"item names must be non-empty strings, got {name!r}")
         i = self.index.get(name)
         if i is None:
+            if self._closed is not None:
+                raise self._unknown(name, where)
             i = self.index[name] = len(self.items)
             self.items.append(name)
             self.adj.append(set())
             if self.incomp is not None:
                 self.incomp.append(set())
         return i
+
+    def _unknown(self, name: str, where: str) -> InputError:
+        if not self.items:
+            return self.error(where, f"{name!r} is not an item: {self._closed} lists none; add "
+                              "it there")
+        near = difflib.get_close_matches(name, self.items, n=1, cutoff=0.6)
+        hint = (f"did you mean {near[0]!r}?" if near else
+                f"add it to {self._closed} or correct the name")
+        return self.error(where, f"{name!r} is not in {self._closed}; {hint}")
+
+    def _repeat(self, where: str, first: str) -> None:
+        self._repeat_count += 1
+        if len(self._repeats) < 3:
+            self._repeats.append((where, first))
 
     def _pair(self, a, b, where: str) -> Arc:
         i, j = self.item(a, where), self.item(b, where)
@@ -255,14 +337,13 @@ class ProblemBuilder:
     def comparable(self, a, b, where: str) -> None:
         i, j = self._pair(a, b, where)
         key = (min(i, j), max(i, j))
-        other = self._incomp_where.get(key)
-        if other is not None:
-            raise self.error(
-                where, f"pair {a!r}, {b!r} is also listed at {other} as incomparable; keep one"
-            )
+        first = self._comparable.get(key)
+        if first is not None:
+            self._repeat(where, first)
+            return
+        self._comparable[key] = where
         self.adj[i].add(j)
         self.adj[j].add(i)
-        self._comp_where.setdefault(key, where)
 
     def incomparable_others(self) -> None:
         self.incomp = None
@@ -274,49 +355,32 @@ class ProblemBuilder:
         assert self.incomp is not None, "call incomparable_list() first"
         i, j = self._pair(a, b, where)
         key = (min(i, j), max(i, j))
-        other = self._comp_where.get(key)
-        if other is not None:
-            kind = "a fixed arc" if other.startswith("fixed") else "comparable"
-            raise self.error(
-                where, f"pair {a!r}, {b!r} is also listed at {other} as {kind}; keep one"
-            )
+        first = self._incomp_where.get(key)
+        if first is not None:
+            self._repeat(where, first)
+            return
+        self._incomp_where[key] = where
         self.incomp[i].add(j)
         self.incomp[j].add(i)
-        self._incomp_where.setdefault(key, where)
 
     def fixed(self, a, b, where: str) -> None:
         i, j = self._pair(a, b, where)
-        if (j, i) in self._fixed:
-            raise self.error(
-                where, f"fixed arc {a!r} before {b!r} is also fixed the other way at "
-                f"{self._fixed[(j, i)]}; keep one direction"
-            )
-        if (i, j) in self._forbidden:
-            raise self.error(
-                where, f"arc {a!r} before {b!r} is both fixed and forbidden "
-                f"(at {self._forbidden[(i, j)]}); keep one"
-            )
-        key = (min(i, j), max(i, j))
-        other = self._incomp_where.get(key)
-        if other is not None:
-            raise self.error(
-                where, f"fixed arc {a!r} before {b!r} is on a pair listed at {other} as "
-                "incomparable; remove one of them"
-            )
-        self._fixed.setdefault((i, j), where)
+        first = self._fixed.get((i, j))
+        if first is not None:
+            self._repeat(where, first)
+            return
+        self._fixed[(i, j)] = where
         # a fixed arc makes its pair comparable
         self.adj[i].add(j)
         self.adj[j].add(i)
-        self._comp_where.setdefault(key, where)
 
     def forbidden(self, a, b, where: str) -> None:
         i, j = self._pair(a, b, where)
-        if (i, j) in self._fixed:
-            raise self.error(
-                where, f"arc {a!r} before {b!r} is both forbidden and fixed "
-                f"(at {self._fixed[(i, j)]}); keep one"
-            )
-        self._forbidden.setdefault((i, j), where)
+        first = self._forbidden.get((i, j))
+        if first is not None:
+            self._repeat(where, first)
+            return
+        self._forbidden[(i, j)] = where
 
     def prefer(self, a, b, w, where: str) -> None:
         i, j = self._pair(a, b, where)
@@ -332,7 +396,18 @@ class ProblemBuilder:
             self.weights = {}
         self.weights[i] = w
 
+    def note(self, text: str) -> None:
+        """Record a note about the input (the command line prints it on standard error)."""
+        self._notes.append(text)
+
     def build(self) -> Problem:
+        notes = list(self._notes)
+        if self._repeat_count:
+            k = self._repeat_count
+            shown = ", ".join(f"{where} repeats {first}" for where, first in self._repeats)
+            more = f" and {k - len(self._repeats)} more" if k > len(self._repeats) else ""
+            notes.insert(0, f"{self.source}: {k} repeated requirement{'s' if k > 1 else ''} "
+                         f"merged, each counted once ({shown}{more})")
         p = Problem(
             items=self.items,
             adj=self.adj,
@@ -342,6 +417,7 @@ class ProblemBuilder:
             prefer=self._prefer,
             weights=self.weights,
             source=self.source,
+            notes=notes,
         )
         p._index = self.index
         return p

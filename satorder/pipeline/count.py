@@ -1,6 +1,6 @@
 """The exact number of answers of a problem.
 
-Two methods, and the result says which one was used:
+Three methods, and the result says which one was used:
 
 * ``"modular-decomposition"`` — for problems without open pairs (every pair is either
   comparable or must stay unordered), the answers are the transitive orientations of the
@@ -19,14 +19,18 @@ Two methods, and the result says which one was used:
 * ``"enumeration"`` — problems with open pairs: every answer is produced by the SAT engine with
   blocking clauses (:mod:`satorder.sat.enumeration`) and certified
   (:mod:`satorder.pipeline.orders`); with ``limit`` or
-  ``time_limit`` reached first, the count is a lower bound (``exact`` is False).
+  ``time_limit`` reached first, or Ctrl-C, the count is a lower bound (``exact`` is False,
+  ``reason`` says which).  Listing is exponential work: :func:`enumeration_bound` gives, before
+  it starts, the most answers the problem can have.
 * ``"approximate"`` — problems with open pairs whose listing passes
   :data:`LISTING_THRESHOLD` answers (method ``auto``), or on request: ApproxMC estimates the
   number of answers within a factor ``1 + ε`` with probability at least ``1 − δ``
   (:mod:`satorder.sat.modelcount`); ``exact`` is False, ``epsilon`` and ``delta`` are stated,
   and the certified answers listed before the switch are a lower bound.
 
-Preferences rank answers but rule none out, so they do not change the count.
+Preferences rank answers but rule none out, so they do not change the count.  Requirements
+that clash on one pair (:meth:`~satorder.model.problem.Problem.contradictions`) admit no answer:
+the count is 0 with no search (``stats["clash"]`` names the two), cross-checked like any other.
 
 >>> from satorder.model.problem import Problem
 >>> count_answers(Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")])).count
@@ -38,22 +42,39 @@ Preferences rank answers but rule none out, so they do not change the count.
 
 from __future__ import annotations
 
+import math
 import time
 from dataclasses import dataclass, field
+from math import factorial
 from typing import Any
 
 from satorder.certify.decomposition import check_decomposition
 from satorder.errors import CertificateError, InputError
-from satorder.graph.constrained import TooManyStates, constrain, required_arcs
 from satorder.graph.forcing import transitive_orientation
+from satorder.graph.modular import (
+    LEAF,
+    PARALLEL,
+    PRIME,
+    SERIES,
+    ModuleNode,
+    modular_decomposition,
+    quotient,
+)
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
-from satorder.pipeline.orders import EnumerationEnd, certified_orders
+from satorder.pipeline.orders import (
+    INTERRUPTED,
+    LIMIT,
+    TIME_LIMIT,
+    EnumerationEnd,
+    certified_orders,
+)
 from satorder.pipeline.solve import solve
 
 DECOMPOSITION, ENUMERATION, APPROXIMATE = "modular-decomposition", "enumeration", "approximate"
 METHODS = ("auto", DECOMPOSITION, ENUMERATION, APPROXIMATE)
 LISTING_THRESHOLD = 10_000  # method auto: past this many listed answers, count approximately
+MAX_DOWNSETS = 2_000_000  # beyond this many states a series node's arcs are too many to count
 
 
 @dataclass
@@ -85,28 +106,45 @@ class CountResult:
             doc["stopped"] = self.reason
         if self.problem.prefer:
             doc["note"] = "preferences rank answers but rule none out; they are not counted"
-        doc["items"] = self.problem.n
+        doc["item_count"] = self.problem.n
         doc["comparable_pairs"] = self.problem.num_comparable
         doc["verified"] = self.verified
         doc["stats"] = self.stats
         return doc
 
 
+class TooManyStates(RuntimeError):
+    """A series node carries too many arcs for the down-set count."""
+
+
 def count_answers(problem: Problem, limit: int | None = None, solver: str | None = None,
                   time_limit: float | None = None, method: str = "auto",
-                  on_progress=None, seed: int = 0) -> CountResult:
+                  on_progress=None, on_enumeration=None, seed: int = 0) -> CountResult:
     """Count the answers of ``problem``; see the module docstring for the methods.
 
     ``method``: ``"auto"`` (decomposition when there are no open pairs, otherwise enumeration
     that turns approximate past :data:`LISTING_THRESHOLD` answers), ``DECOMPOSITION``,
     ``ENUMERATION`` (list every answer however many) or ``APPROXIMATE``.  ``limit``/``time_limit``
     bound the enumeration (the time limit also the approximate count).  ``on_progress(k)`` is
-    called as enumerated answers arrive; ``seed`` fixes ApproxMC's random hashes.
+    called as enumerated answers arrive, ``on_enumeration(bound)`` once before listing starts
+    (``bound`` from :func:`enumeration_bound`).  Ctrl-C during the listing ends it: the result
+    is then a lower bound with ``reason`` ``"interrupted"``.  ``seed`` fixes ApproxMC's random
+    hashes.
     """
     if method not in METHODS:
         raise ValueError(f"unknown counting method {method!r}")
     t0 = time.perf_counter()
+    clash = problem.contradictions()
+    if clash:  # two requirements clash on one pair: no answer at all
+        names = problem.items
+        if method == "auto":
+            method = ENUMERATION if problem.has_open_pairs else DECOMPOSITION
+        return CountResult(problem, 0, True, method, stats={
+            "clash": [r.to_json(names) for r in clash[0]],
+            "seconds": round(time.perf_counter() - t0, 6)})
     if method == APPROXIMATE or (method == "auto" and problem.has_open_pairs):
+        if on_enumeration is not None and method == "auto":
+            on_enumeration(enumeration_bound(problem))
         res = _count_open(problem, limit, solver, time_limit, on_progress, seed,
                           listing=method == "auto")
         res.stats["seconds"] = round(time.perf_counter() - t0, 6)
@@ -125,6 +163,8 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
             res.stats["seconds"] = round(time.perf_counter() - t0, 6)
             return res
         method = ENUMERATION
+    if on_enumeration is not None:
+        on_enumeration(enumeration_bound(problem))
     res = _count_by_enumeration(problem, limit, solver, time_limit, on_progress)
     res.stats["seconds"] = round(time.perf_counter() - t0, 6)
     return res
@@ -141,14 +181,19 @@ def _count_open(problem, limit, solver, time_limit, on_progress, seed, listing) 
     if listing:
         cap = LISTING_THRESHOLD if limit is None else min(limit, LISTING_THRESHOLD)
         listed = _count_by_enumeration(problem, cap, solver, time_limit, on_progress)
-        if listed.exact or listed.reason != "limit" or cap == limit:
+        if listed.exact or listed.reason != LIMIT or cap == limit:
             return listed
-    res = _count_approximately(problem, seed, deadline)
-    if res is None:  # the time limit came first
+    try:
+        res = _count_approximately(problem, seed, deadline)
+    except KeyboardInterrupt:  # Ctrl-C while counting: what was listed is a lower bound
+        res, reason = None, INTERRUPTED
+    else:
+        reason = TIME_LIMIT
+    if res is None:  # the time limit or Ctrl-C came first
         if listed is not None:
-            listed.reason = "time limit"
+            listed.reason = reason
             return listed
-        return CountResult(problem, 0, False, ENUMERATION, reason="time limit",
+        return CountResult(problem, 0, False, ENUMERATION, reason=reason,
                            stats={"enumerated": 0})
     if listed is not None:
         res.stats["enumerated"] = listed.count
@@ -171,32 +216,204 @@ def _count_approximately(problem, seed, deadline) -> CountResult | None:
                        stats=stats)
 
 
+def enumeration_bound(problem: Problem) -> float:
+    """log10 of the most answers ``problem`` can have, from the states each pair may take in an
+    answer (common practice, a plain product): a comparable pair is ordered one of 2 ways (1
+    when a fixed arc or a forbidden arc on it leaves one), an open pair is unordered or ordered
+    either way (3, or 2 with a forbidden arc), a pair that must stay unordered has 1 state.
+    Listing the answers one by one costs at least one SAT call per answer, so this bounds the
+    work.
+
+    >>> from satorder.model.problem import Problem
+    >>> round(10 ** enumeration_bound(Problem.from_lists(comparable=[("a", "b"), ("b", "c")])))
+    4
+    """
+    fixed = {frozenset(arc) for arc in problem.fixed}
+    banned = {frozenset(arc) for arc in problem.forbidden}
+    two = three = 0
+    for a in range(problem.n):
+        for b in problem.adj[a]:
+            if a < b and frozenset((a, b)) not in fixed and frozenset((a, b)) not in banned:
+                two += 1
+    if problem.incomparable is not None:
+        for a in range(problem.n):
+            for b in range(a + 1, problem.n):
+                if problem.is_open(a, b):
+                    if frozenset((a, b)) in banned:
+                        two += 1
+                    else:
+                        three += 1
+    return two * math.log10(2) + three * math.log10(3)
+
+
 def _count_by_enumeration(problem, limit, solver, time_limit, on_progress) -> CountResult:
     end = EnumerationEnd()
-    for found in certified_orders(problem, limit=limit, solver=solver, time_limit=time_limit,
-                                  end=end):
-        if on_progress is not None:
-            on_progress(found.index)
+    listed = 0
+    orders = certified_orders(problem, limit=limit, solver=solver, time_limit=time_limit,
+                              end=end)
+    try:
+        for found in orders:
+            listed += 1
+            if on_progress is not None:
+                on_progress(found.index)
+    except KeyboardInterrupt:  # stop with what was found: a lower bound
+        end.complete, end.reason = False, INTERRUPTED
+    finally:
+        orders.close()
     # every enumerated order passed certify.order.check_order; distinct by construction
-    return CountResult(problem, end.found, end.complete, ENUMERATION, reason=end.reason,
-                       stats={"enumerated": end.found}, verified=True)
+    return CountResult(problem, listed, end.complete, ENUMERATION, reason=end.reason,
+                       stats={"enumerated": listed}, verified=True)
 
 
 # ------------------------------------------------------------------------ decomposition
+def required_arcs(problem: Problem) -> list[tuple[int, int]] | None:
+    """The arcs every answer must contain, for a problem without open pairs: fixed arcs, and
+    the reverse of each forbidden arc on a comparable pair (a comparable pair is ordered one way
+    or the other).  ``None`` if some fixed arc lies on a pair that must stay unordered."""
+    arcs = []
+    for a, b in problem.fixed:
+        if b not in problem.adj[a]:
+            return None
+        arcs.append((a, b))
+    for a, b in problem.forbidden:
+        if b in problem.adj[a]:
+            arcs.append((b, a))
+    return arcs
+
+
 def _count_by_decomposition(problem: Problem) -> CountResult:
-    """The product formula of :mod:`satorder.graph.constrained` (see the module docstring)."""
+    adj = problem.adj
     stats: dict[str, Any] = {}
-    if required_arcs(problem) is None:
+    arcs = required_arcs(problem)
+    if arcs is None:
         return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
     if problem.n == 0:
         return CountResult(problem, 1, True, DECOMPOSITION, stats=stats)
-    if not transitive_orientation(problem.adj).orientable:
+    if not transitive_orientation(adj).orientable:
         stats["comparability_graph"] = False
         return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
-    con = constrain(problem, orient_primes=False)
-    stats["nodes"] = con.kinds
-    stats["constrained_nodes"] = sum(1 for c in con.nodes if c.arcs)
-    return CountResult(problem, con.count, True, DECOMPOSITION, stats=stats, tree=con.tree)
+    tree = modular_decomposition(adj)
+    kinds = {SERIES: 0, PARALLEL: 0, PRIME: 0}
+    for node in tree.nodes():
+        if node.kind != LEAF:
+            kinds[node.kind] += 1
+    stats["nodes"] = kinds
+    result = CountResult(problem, 0, True, DECOMPOSITION, stats=stats, tree=tree)
+    placed = _place_arcs(tree, arcs, problem.n)
+    stats["constrained_nodes"] = len(placed)
+    total = 1
+    for node in tree.nodes():
+        if node.kind == SERIES:
+            total *= _series_count(len(node.children), placed.get(id(node), ()))
+        elif node.kind == PRIME:
+            total *= _prime_count(adj, node, placed.get(id(node), ()))
+        if total == 0:
+            break
+    result.count = total
+    return result
+
+
+def _place_arcs(tree: ModuleNode, arcs, n: int) -> dict[int, list[tuple[int, int]]]:
+    """For each arc (a, b), the node where a and b separate and the indices of the children
+    holding a and b there: ``{id(node): [(child_a, child_b), ...]}``."""
+    if not arcs:
+        return {}
+    parent: dict[int, tuple[ModuleNode, int]] = {}  # id(child) → (parent, child index)
+    depth: dict[int, int] = {id(tree): 0}
+    leaf: list[ModuleNode | None] = [None] * n
+    for node in tree.nodes():
+        if node.kind == LEAF:
+            leaf[node.item] = node
+        for i, c in enumerate(node.children):
+            parent[id(c)] = (node, i)
+            depth[id(c)] = depth[id(node)] + 1
+    out: dict[int, list[tuple[int, int]]] = {}
+    for a, b in arcs:
+        x, y = leaf[a], leaf[b]
+        ix = iy = -1
+        while depth[id(x)] > depth[id(y)]:
+            x, ix = parent[id(x)]
+        while depth[id(y)] > depth[id(x)]:
+            y, iy = parent[id(y)]
+        while x is not y:
+            x, ix = parent[id(x)]
+            y, iy = parent[id(y)]
+        # x is the lowest common ancestor; ix, iy the children on the way up from a and b
+        out.setdefault(id(x), []).append((ix, iy))
+    return out
+
+
+def _series_count(k: int, arcs) -> int:
+    """Linear orders of k children in which each arc (i, j) puts child i before child j."""
+    if not arcs:
+        return factorial(k)
+    involved = sorted({i for arc in arcs for i in arc})
+    r = len(involved)
+    pos = {c: t for t, c in enumerate(involved)}
+    before = [0] * r  # bitmask of the involved children that must come earlier
+    for i, j in arcs:
+        before[pos[j]] |= 1 << pos[i]
+    return factorial(k) // factorial(r) * _linear_extensions(before)
+
+
+def _linear_extensions(before: list[int]) -> int:
+    """Linear extensions of a relation on r elements (``before[j]``: elements that must precede
+    j), by dynamic programming over down-sets; 0 if the relation has a cycle."""
+    r = len(before)
+    full = (1 << r) - 1
+    ways = {0: 1}
+    for _ in range(r):
+        nxt: dict[int, int] = {}
+        for mask, w in ways.items():
+            for j in range(r):
+                bit = 1 << j
+                if not mask & bit and before[j] & ~mask == 0:
+                    m2 = mask | bit
+                    nxt[m2] = nxt.get(m2, 0) + w
+        if len(nxt) > MAX_DOWNSETS:
+            raise TooManyStates(f"{len(nxt)} down-sets")
+        ways = nxt
+        if not ways:
+            return 0
+    return ways.get(full, 0)
+
+
+def _prime_count(adj, node: ModuleNode, arcs) -> int:
+    """How many of the two transitive orientations of a prime node's quotient put each arc
+    (i, j) (children indices) as i before j."""
+    from satorder.graph.forcing import transitive_orientation
+
+    if not arcs:
+        return 2
+    q = quotient(adj, node)
+    res = transitive_orientation(q)
+    if not res.orientable:  # cannot happen when the whole graph is a comparability graph
+        return 0
+    up = {(a, b) for a, b in res.arcs()}
+    forward = all((i, j) in up for i, j in arcs)
+    backward = all((j, i) in up for i, j in arcs)
+    return int(forward) + int(backward)
+
+
+# ------------------------------------------------------------------------ alongside an answer
+CHEAP_PAIRS = 50_000  # comparable pairs up to which solve also counts its answers
+
+
+def answers_admitted(problem: Problem, cheap_pairs: int = CHEAP_PAIRS) -> CountResult | None:
+    """The number of answers, checked by :func:`check_count`, when it is cheap to know: no
+    open pairs (so the modular decomposition counts them) and at most ``cheap_pairs``
+    comparable pairs; otherwise ``None``.  ``solve`` prints it beside the order it found, so
+    the check is the one that loads no SAT solver: the solving engine agrees that an answer
+    exists and the decomposition tree passes its independent check (``satorder count``
+    recounts small counts by enumeration as well)."""
+    if problem.has_open_pairs or problem.num_comparable > cheap_pairs:
+        return None
+    try:
+        res = _count_by_decomposition(problem)
+    except TooManyStates:
+        return None
+    check_count(res, recount_up_to=0)
+    return res
 
 
 # ------------------------------------------------------------------------ independent check

@@ -19,9 +19,18 @@ from collections.abc import Iterator
 
 from satorder.certify.order import check_order
 from satorder.model.problem import Problem
-from satorder.sat.enumeration import EnumerationEnd, FoundOrder, enumerate_orders
+from satorder.sat.enumeration import (
+    COMPLETE,
+    INTERRUPTED,
+    LIMIT,
+    TIME_LIMIT,
+    EnumerationEnd,
+    FoundOrder,
+    enumerate_orders,
+)
 
-__all__ = ["EnumerationEnd", "FoundOrder", "certified_orders"]
+__all__ = ["COMPLETE", "INTERRUPTED", "LIMIT", "TIME_LIMIT", "EnumerationEnd", "FoundOrder",
+           "certified_orders"]
 
 
 def certified_orders(problem: Problem, limit: int | None = None, solver: str | None = None,

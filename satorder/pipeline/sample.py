@@ -52,6 +52,7 @@ class SampleResult:
     answers: int | None = None
     uniform: str = "exact"
     kappa: float | None = None
+    answer: Any = None  # infeasible problems: the verified answer of solve, with its core
     verified: bool = False
     stats: dict[str, Any] = field(default_factory=dict)
 
@@ -65,14 +66,19 @@ class SampleResult:
                                "seed": self.seed, "answers": self.answers}
         if self.kappa is not None:
             doc["kappa"] = self.kappa
+        if self.answer is not None and self.status == INFEASIBLE:
+            sub = self.answer.to_json()
+            for key in ("conflict", "core"):
+                if key in sub:
+                    doc[key] = sub[key]
         doc["verified"] = self.verified
         doc["stats"] = self.stats
         return doc
 
 
 def sample_answers(problem: Problem, k: int, seed: int = 0, method: str = "auto",
-                   time_limit: float | None = None,
-                   exact_limit: int = EXACT_LIMIT) -> SampleResult:
+                   time_limit: float | None = None, exact_limit: int = EXACT_LIMIT,
+                   solver: str | None = None) -> SampleResult:
     """Draw ``k`` answers of ``problem`` at random (see the module docstring).  Preferences
     rank answers but rule none out, so they are ignored.  A problem without answers gives
     status ``infeasible`` and no orders; ``unknown`` when the time limit came first."""
@@ -90,16 +96,20 @@ def sample_answers(problem: Problem, k: int, seed: int = 0, method: str = "auto"
                          "cannot describe; use --method listing, unigen or auto")
     rng = random.Random(seed)
     res = None
-    if method == DECOMPOSITION:
+    if hard.contradictions():  # two requirements clash on one pair: no answer, no search
+        res = SampleResult(hard, INFEASIBLE, method, seed, answers=0)
+    if res is None and method == DECOMPOSITION:
         res = _by_decomposition(hard, k, rng, seed)
     if res is None and method in (DECOMPOSITION, LISTING):
         res = _by_listing(hard, k, rng, seed, exact_limit, deadline)
     if res is None:
-        res = _by_unigen(hard, k, seed, deadline)
+        res = _by_unigen(hard, k, seed, deadline, solver)
     res.problem = problem
     for succ in res.orders:
         check_order(hard, succ)
     res.verified = res.status == FEASIBLE
+    if res.status == INFEASIBLE:
+        _refute(res, hard, solver, time_limit)
     res.stats["seconds"] = round(time.perf_counter() - t0, 6)
     return res
 
@@ -137,13 +147,13 @@ def _by_listing(problem, k, rng, seed, limit, deadline) -> SampleResult | None:
     return SampleResult(problem, FEASIBLE, LISTING, seed, [found[i] for i in picks], tl.total)
 
 
-def _by_unigen(problem, k, seed, deadline) -> SampleResult:
+def _by_unigen(problem, k, seed, deadline, solver) -> SampleResult:
     from satorder.sat.answer_formula import AnswerFormula
     from satorder.sat.sampling import KAPPA, almost_uniform_samples
 
     formula = AnswerFormula(problem)
     res = SampleResult(problem, UNKNOWN, UNIGEN, seed, uniform="almost", kappa=KAPPA)
-    feasible = False if formula.unsat else _feasible(problem, deadline)
+    feasible = False if formula.unsat else _feasible(problem, deadline, solver)
     if feasible is None:  # the time limit came first
         return res
     if not feasible:
@@ -155,10 +165,23 @@ def _by_unigen(problem, k, seed, deadline) -> SampleResult:
     return res
 
 
-def _feasible(problem, deadline) -> bool | None:
+def _refute(res: SampleResult, problem: Problem, solver, time_limit) -> None:
+    """No answer to draw: the verified answer of solve, whose core (or forcing chain) says
+    why, must agree."""
+    from satorder.errors import CertificateError
+    from satorder.pipeline.solve import solve
+
+    ans = solve(problem, solver=solver, time_limit=time_limit)
+    if ans.status == FEASIBLE:
+        raise CertificateError(f"the {res.method} finds no answer, but the solver found a "
+                               "certified one")
+    res.status, res.answer, res.verified = ans.status, ans, ans.verified
+
+
+def _feasible(problem, deadline, solver) -> bool | None:
     """Whether the problem has an answer (the SAT engine, before asking the sampler); None
     when the deadline came first."""
     from satorder.sat.session import SatSession
 
-    with SatSession(problem) as s:
+    with SatSession(problem, solver=solver) as s:
         return s.solve(deadline=deadline) is not False

@@ -133,7 +133,7 @@ class SettledResult:
                     doc[key] = sub[key]
         if self.notes:
             doc["notes"] = self.notes
-        doc["items"] = self.problem.n
+        doc["item_count"] = self.problem.n
         doc["comparable_pairs"] = self.problem.num_comparable
         doc["verified"] = self.verified
         doc["checks"] = self.checks
@@ -190,7 +190,9 @@ def settled(problem: Problem, method: str = "auto", time_limit: float | None = N
         raise InputError(f"{problem.source}: has open pairs, which the decomposition method "
                          "cannot describe; use --method listing, approximate or auto")
     res = None
-    if method == DECOMPOSITION:
+    if hard.contradictions():  # two requirements clash on one pair: no answer, no search
+        res = SettledResult(hard, INFEASIBLE, method, 0, True)
+    if res is None and method == DECOMPOSITION:
         try:
             res = _by_decomposition(hard, seed)
         except TooManyStates:

@@ -10,7 +10,10 @@ Okabe & Ito 2002, each kind with its own line width or dash pattern as well):
   bent and crossed out at the middle);
 * obstruction items filled orange.
 
-The legend lists only the kinds that are drawn.
+The legend lists only the kinds that are drawn.  Below the drawing the core's requirements are
+listed as numbered rows (counted from 1, as ``explain`` prints and the derivation cites them),
+worded by :func:`satorder.model.wording.requirement_text`; each line of the drawing carries the
+same words as its tooltip (an SVG ``<title>``).
 
 >>> from satorder import Problem
 >>> from satorder.explanation.explain import explain
@@ -26,6 +29,7 @@ import math
 from html import escape
 
 from satorder.model.requirement import INFEASIBLE, Kind, Requirement
+from satorder.model.wording import requirement_text
 from satorder.render.picture import (
     BLUE,
     GREEN,
@@ -39,6 +43,8 @@ from satorder.render.picture import (
 )
 
 MAX_ITEMS = 80
+LISTED_ROWS = 12  # core rows listed under the drawing before "… and k more"
+ROW_H = 17
 COLOURS = {
     "graph": "#A0A0A0",
     "comparable": BLUE,
@@ -54,15 +60,17 @@ STYLE = {  # (width, dash) per kind: readable without colour
     "fixed": (3.0, "14,5"),
     "forbidden": (2.5, "2,4"),
 }
-LEGEND = {
-    "comparable": "core: must be ordered",
-    "incomparable": "core: must stay unordered",
-    "fixed": "core: fixed arc (arrow: before → after)",
-    "forbidden": "core: forbidden arc (bent, crossed out)",
+LEGEND = {  # each kind in the one wording, over two items a and b
+    "comparable": "core, " + requirement_text(("comparable", (0, 1)), "ab"),
+    "incomparable": "core, " + requirement_text(("incomparable", (0, 1)), "ab"),
+    "fixed": "core, " + requirement_text(("fixed", (0, 1)), "ab") + " (arrow a → b)",
+    "forbidden": "core, " + requirement_text(("forbidden", (0, 1)), "ab")
+                 + " (arrow a → b, crossed out)",
     "graph": "other comparable pair",
 }
 CAPTION = ("These requirements cannot all hold at once, and dropping any one of them makes the "
-           "rest possible; each line is one requirement between the two items it joins.")
+           "rest possible; each line is one requirement between the two items it joins, "
+           "numbered and worded below the drawing.")
 
 
 def _walk_order(items: list[int], core: list[Requirement]) -> list[int]:
@@ -118,7 +126,12 @@ def explanation_svg(expl, title: str | None = None) -> str:
     )
     head = Header(width, heading, CAPTION, legend)
     cx, cy = width / 2, head.height + 40 + radius
-    height = cy + radius + 50
+    rows = [f"{k}. {requirement_text(r, names)}" for k, r in enumerate(core, 1)]
+    if len(rows) > LISTED_ROWS:
+        rows = rows[:LISTED_ROWS - 1] + [f"… and {len(core) - LISTED_ROWS + 1} more "
+                                         "(explain lists them all)"]
+    list_top = cy + radius + 50
+    height = list_top + (ROW_H * len(rows) + 16 if rows else 0)
     pos = {}
     for i, v in enumerate(order):
         ang = -math.pi / 2 + 2 * math.pi * i / k
@@ -134,41 +147,56 @@ def explanation_svg(expl, title: str | None = None) -> str:
         )
     out.append("</defs>")
 
-    def line(a, b, kind, marker="", shorten=0.0):
+    def tip(r) -> str:
+        return f"<title>{escape(requirement_text(r, names))}</title>"
+
+    def line(a, b, kind, marker="", shorten=0.0, title="", bend=0.0):
+        """A line from a to b, or with ``bend`` a quadratic curve bowing that many pixels to
+        the left of the direction a → b (so two requirements on one pair stay apart)."""
         (x1, y1), (x2, y2) = pos[a], pos[b]
+        dx, dy = x2 - x1, y2 - y1
+        d = math.hypot(dx, dy) or 1.0
         if shorten:
-            dx, dy = x2 - x1, y2 - y1
-            d = math.hypot(dx, dy) or 1.0
             x1, y1 = x1 + dx * shorten / d, y1 + dy * shorten / d
             x2, y2 = x2 - dx * shorten / d, y2 - dy * shorten / d
         w, dash = STYLE[kind]
         extra = f' stroke-dasharray="{dash}"' if dash else ""
         extra += f' marker-end="url(#{marker})"' if marker else ""
-        out.append(f'<line class="{kind}" x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" '
-                   f'y2="{y2:.1f}" stroke="{COLOURS[kind]}" stroke-width="{w}"{extra}/>')
+        if not bend:
+            end = f">{title}</line>" if title else "/>"
+            out.append(f'<line class="{kind}" x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" '
+                       f'y2="{y2:.1f}" stroke="{COLOURS[kind]}" stroke-width="{w}"{extra}{end}')
+            return (x1 + x2) / 2, (y1 + y2) / 2
+        qx, qy = (x1 + x2) / 2 - dy * bend / d, (y1 + y2) / 2 + dx * bend / d
+        out.append(f'<path class="{kind}" d="M{x1:.1f},{y1:.1f} Q{qx:.1f},{qy:.1f} '
+                   f'{x2:.1f},{y2:.1f}" fill="none" stroke="{COLOURS[kind]}" '
+                   f'stroke-width="{w}"{extra}>{title}</path>')
+        return (x1 + 2 * qx + x2) / 4, (y1 + 2 * qy + y2) / 4
 
     for a, b in context:
         line(a, b, "graph")
-    for kind, (a, b) in core:
-        kind = kind.value
+    sharing: dict[frozenset, list[Requirement]] = {}
+    for r in core:
+        sharing.setdefault(frozenset(r.pair), []).append(r)
+    for r in core:
+        kind, (a, b) = r.kind.value, r.pair
+        (x1, y1), (x2, y2) = pos[a], pos[b]
+        same = sharing[frozenset(r.pair)]
+        if len(same) > 1:  # requirements on one pair bow apart, each to its own side
+            bend = (same.index(r) - (len(same) - 1) / 2) * 60.0
+            bend = min(abs(bend), 0.35 * math.hypot(x2 - x1, y2 - y1)) * (1 if bend > 0 else -1)
+            bend = bend if a < b else -bend  # measured from the lower id, whatever the arc
+        elif kind == Kind.FORBIDDEN:  # bent, so it stays visible beside other lines
+            bend = min(45.0, 0.3 * math.hypot(x2 - x1, y2 - y1))
+        else:
+            bend = 0.0
         if kind in (Kind.COMPARABLE, Kind.INCOMPARABLE):
-            line(a, b, kind)
+            line(a, b, kind, title=tip(r), bend=bend)
         elif kind == Kind.FIXED:
-            line(a, b, kind, marker="arrow-fixed", shorten=17)
-        else:  # a bent arrow, so it stays visible beside a straight line on the same pair
-            (x1, y1), (x2, y2) = pos[a], pos[b]
-            dx, dy = x2 - x1, y2 - y1
-            d = math.hypot(dx, dy) or 1.0
-            x1, y1 = x1 + dx * 16 / d, y1 + dy * 16 / d
-            x2, y2 = x2 - dx * 16 / d, y2 - dy * 16 / d
-            bend = min(45.0, 0.3 * d)
-            qx, qy = (x1 + x2) / 2 - dy * bend / d, (y1 + y2) / 2 + dx * bend / d
-            w, dash = STYLE[kind]
-            out.append(f'<path class="{kind}" d="M{x1:.1f},{y1:.1f} Q{qx:.1f},{qy:.1f} '
-                       f'{x2:.1f},{y2:.1f}" fill="none" stroke="{COLOURS[kind]}" '
-                       f'stroke-width="{w}" stroke-dasharray="{dash}" '
-                       'marker-end="url(#arrow-forbidden)"/>')
-            mx, my = (x1 + 2 * qx + x2) / 4, (y1 + 2 * qy + y2) / 4
+            line(a, b, kind, marker="arrow-fixed", shorten=17, title=tip(r), bend=bend)
+        else:
+            mx, my = line(a, b, kind, marker="arrow-forbidden", shorten=16, title=tip(r),
+                          bend=bend)
             out.append(f'<text x="{mx:.1f}" y="{my + 8:.1f}" text-anchor="middle" '
                        f'font-size="24" font-weight="bold" fill="{COLOURS[kind]}">✕</text>')
     for v in order:
@@ -182,4 +210,7 @@ def explanation_svg(expl, title: str | None = None) -> str:
         anchor = "start" if dx > 5 else ("end" if dx < -5 else "middle")
         out.append(f'<text x="{lx:.1f}" y="{ly:.1f}" text-anchor="{anchor}">'
                    f"{escape(names[v])}</text>")
+    for k, text in enumerate(rows):
+        out.append(f'<text class="core-row" x="16" y="{list_top + ROW_H * k:.0f}">'
+                   f"{escape(text)}</text>")
     return document(width, height, out, font_size=13)

@@ -7,35 +7,23 @@ from rich.console import Console
 from rich.table import Table
 
 from satorder.explanation.derivation import describe
-from satorder.model.requirement import ARC_KINDS, FEASIBLE, INFEASIBLE, Kind, Requirement, items_of
+from satorder.explanation.repairs import repair_text
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, Requirement, items_of
+from satorder.model.wording import requirement_text
 
 MAX_STEPS = 120
 MAX_ORDER_PAIRS = 12
 
-KIND_WORDS = {
-    Kind.COMPARABLE: "must be ordered",
-    Kind.INCOMPARABLE: "must stay unordered",
-    Kind.FIXED: "must come before",
-    Kind.FORBIDDEN: "may not come before",
-}
-
-
-def requirement_text(r: Requirement, names: list[str]) -> str:
-    kind, (a, b) = r
-    if kind in ARC_KINDS:
-        return f"{names[a]} {KIND_WORDS[kind]} {names[b]}"
-    return f"{names[a]}, {names[b]} {KIND_WORDS[kind]}"
-
 
 def print_core(core: list[Requirement], names: list[str], console: Console,
                limit: int = 40) -> None:
-    """The core as a table: one requirement per row."""
+    """The core as a table: one numbered requirement per row (rows count from 1, as the
+    derivation cites them)."""
     table = Table(show_header=True, header_style="bold")
-    table.add_column("#", justify="right")
-    table.add_column("kind")
+    table.add_column("row", justify="right")
     table.add_column("requirement")
-    for k, r in enumerate(core[:limit]):
-        table.add_row(str(k), str(r.kind), requirement_text(r, names))
+    for k, r in enumerate(core[:limit], 1):
+        table.add_row(str(k), requirement_text(r, names))
     console.print(table)
     if len(core) > limit:
         console.print(f"… and {len(core) - limit} more (use --json).")
@@ -56,8 +44,14 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
         console.print("No verdict within the limits.")
         return
     core = expl.core or []
-    console.print(f"\n[bold]Minimal core[/]: these {len(core)} requirements cannot all hold "
-                  "(on their own, every other pair left open); drop any one and the rest can.")
+    if getattr(expl, "minimal", True):
+        console.print(f"\n[bold]Minimal core[/]: these {len(core)} requirements cannot all "
+                      "hold (on their own, every other pair left open); drop any one and the "
+                      "rest can.")
+    else:
+        console.print(f"\n[bold]Core, not minimal[/]: these {len(core)} requirements cannot "
+                      "all hold (on their own, every other pair left open); shrinking stopped "
+                      "early, so some may be dropped.")
     print_core(core, names, console)
     if expl.obstruction is not None:
         console.print(
@@ -91,8 +85,7 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
                       "requirements to drop, checked by finding an order after the change):")
         focus = set(items_of(core))
         for k, rep in enumerate(expl.repairs, 1):
-            drops = "; ".join(requirement_text(r, names) for r in rep.drop)
-            console.print(f"  {k}. drop: {drops}")
+            console.print(f"  {k}. {repair_text(rep.drop, names)}")
             if rep.succ is not None:
                 cover = sorted((a, b) for a in focus for b in rep.succ[a] if b in focus)
                 total = sum(len(s) for s in rep.succ)

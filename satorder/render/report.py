@@ -154,9 +154,9 @@ class Report:
                    caption="Requirements by kind", numeric={"count"})
         rows = list(islice(requirement_rows(problem, succ, core, unmet), limit + 1))
         shown = rows[:limit]
-        self.table(["#", "kind", "requirement", "in the answer"],
-                   [(k + 1, *r) for k, r in enumerate(shown)], caption="Each requirement",
-                   numeric={"#"})
+        self.table(["#", "requirement", "in the answer"],
+                   [(k, text, st) for k, (_, text, st) in enumerate(shown, 1)],
+                   caption="Each requirement", numeric={"#"})
         if len(rows) > limit:
             self.text(f"Only the first {limit} requirements are listed (core members first); "
                       "the counts above cover all of them.", note=True)

@@ -9,6 +9,7 @@ a picture needs) and returns the :class:`~satorder.render.report.Report`; the co
 from __future__ import annotations
 
 from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
+from satorder.model.wording import requirement_text
 from satorder.render.report import Report
 
 SHOW_ITEMS = 40  # item names per table cell before "…"
@@ -58,8 +59,6 @@ def order_section(report: Report, problem, succ, measures=None) -> Report:
 def solve_report(problem, answer, command: str | None = None,
                  title: str = "satorder solve") -> Report:
     """The page of ``satorder solve`` (also of ``measure`` when there is no order)."""
-    from satorder.render.explanation_text import requirement_text
-
     names = problem.items
     facts: list[tuple[str, object]] = [("engine", answer.engine),
                                        ("verified", _verified(answer.verified))]
@@ -82,16 +81,15 @@ def solve_report(problem, answer, command: str | None = None,
     elif answer.status == INFEASIBLE:
         r.section("Why no order exists")
         if answer.core is not None:
-            r.table(["#", "kind", "requirement"],
-                    [(k + 1, c.kind.value, requirement_text(c, names))
-                     for k, c in enumerate(answer.core)],
-                    caption="These requirements cannot all hold", numeric={"#"})
+            r.table(["row", "requirement"],
+                    [(k, requirement_text(c, names)) for k, c in enumerate(answer.core, 1)],
+                    caption="These requirements cannot all hold", numeric={"row"})
         if answer.chain is not None:
             rows = []
             for k, s in enumerate(answer.chain, 1):
                 a, b = s.arc
-                why = ("start" if s.because is None else
-                       f"forced: {names[s.because[0]]} and {names[s.because[1]]} stay unordered")
+                why = ("start" if s.because is None else "forced, since " +
+                       requirement_text(("incomparable", s.because), names))
                 rows.append((k, f"{names[a]} → {names[b]}", why))
             r.table(["step", "arc", "because"], rows, numeric={"step"},
                     caption="Forcing chain: each arc forces the next, ending in the reverse of "
@@ -140,8 +138,8 @@ def measure_report(problem, answer, m, command: str | None = None) -> Report:
 def explain_report(expl, command: str | None = None) -> Report:
     """The page of ``satorder explain``."""
     from satorder.explanation.derivation import describe
+    from satorder.explanation.repairs import repair_text
     from satorder.render.explanation_svg import MAX_ITEMS, explanation_svg
-    from satorder.render.explanation_text import requirement_text
 
     p = expl.problem
     names = p.items
@@ -158,9 +156,9 @@ def explain_report(expl, command: str | None = None) -> Report:
     else:
         r.section("Why no order exists", f"These {len(core)} requirements cannot all hold (on "
                   "their own, every other pair left open); drop any one and the rest can.")
-        r.table(["#", "kind", "requirement"],
-                [(k + 1, c.kind.value, requirement_text(c, names)) for k, c in enumerate(core)],
-                caption="Minimal core", numeric={"#"})
+        r.table(["row", "requirement"],
+                [(k, requirement_text(c, names)) for k, c in enumerate(core, 1)],
+                caption="Minimal core (the derivation cites these rows)", numeric={"row"})
         if len(expl.involved_items()) <= MAX_ITEMS:
             r.picture(explanation_svg(expl))
         if expl.obstruction is not None:
@@ -179,8 +177,8 @@ def explain_report(expl, command: str | None = None) -> Report:
             r.text(f"Smallest core: {expl.smallest['size']} requirements, proven minimum "
                    f"({expl.smallest['scope']}).")
         if expl.repairs:
-            r.table(["#", "drop", "then"],
-                    [(k, "; ".join(requirement_text(d, names) for d in rep.drop),
+            r.table(["#", "repair", "then"],
+                    [(k, repair_text(rep.drop, names),
                       "an order exists (checked)" if rep.verified else rep.note or "unchecked")
                      for k, rep in enumerate(expl.repairs, 1)],
                     caption="Repairs: minimal sets of requirements to drop", numeric={"#"})
@@ -201,12 +199,21 @@ def count_report(res, command: str | None = None) -> Report:
     if res.method == APPROXIMATE:
         count = f"about {res.count:,} ({res.to_json()['guarantee']})"
     else:
-        count = f"{res.count:,}" + ("" if res.exact else
-                                    f" at least (stopped at the {res.reason})")
+        count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped: {res.reason})")
     r = Report("satorder count", command).header(
         p.source, _size(p), status, [("answers", count), ("method", how),
                                      ("verified", _verified(res.verified))])
-    r.section("How many orders", f"{count} orders meet every requirement, counted by {how}.")
+    clash = res.stats.get("clash")
+    if clash:
+        from satorder.model.requirement import Requirement
+
+        words = "; ".join(requirement_text(Requirement.from_json(c, p.index), p.items)
+                          for c in clash)
+        r.section("How many orders", f"No order meets every requirement: two requirements "
+                  f"clash on one pair — {words}. satorder explain shows repairs.")
+    else:
+        r.section("How many orders",
+                  f"{count} orders meet every requirement, counted by {how}.")
     nodes = res.stats.get("nodes")
     if nodes:
         r.table(["node kind", "count"], sorted(nodes.items()), numeric={"count"},
@@ -256,7 +263,7 @@ def bench_report(rows, backends, summary, series, problems, unverified, timeout,
     r.table(["instance", "back end", "status", "seconds", "verified", "items",
              "comparable pairs", "peak MB"],
             [(row["instance"], row["backend"], row.get("status"), row.get("seconds"),
-              "yes" if row.get("verified") else "no", row.get("items"),
+              "yes" if row.get("verified") else "no", row.get("item_count"),
               row.get("comparable_pairs"), row.get("peak_mb"))
              for row in sorted(rows, key=lambda x: (x["instance"], x["backend"]))],
             numeric={"seconds", "items", "comparable pairs", "peak MB"}, limit=5000)

@@ -2,36 +2,34 @@
 worded for people, with the requirement's state in the answer.
 
 Rows come lazily (a problem may hold a million pairs): members of a core first, then fixed
-arcs, forbidden arcs, pairs that must be ordered, listed pairs that must stay unordered, and
-preferences.  Under ``"incomparable": "others"`` the pairs that must stay unordered are counted
-but not listed (there are about n²/2 of them), except those in a core.
+arcs, forbidden arcs, pairs that must be ordered, listed pairs that must stay unordered, open
+pairs, and preferences.  Under ``"incomparable": "others"`` the pairs that must stay unordered
+are counted but not listed (there are about n²/2 of them), except those in a core.
 
 >>> from satorder import Problem
 >>> p = Problem.from_lists(comparable=[("kiln", "loom")])
->>> list(requirement_rows(p, succ=[{1}, set()]))
-[('comparable', 'kiln, loom must be ordered', 'holds: kiln first')]
+>>> for row in requirement_rows(p, succ=[{1}, set()]):
+...     print(*row, sep=" | ")
+... # doctest: +NORMALIZE_WHITESPACE
+comparable | comparable: kiln and loom must be ordered, one way or the other |
+holds: kiln before loom
 """
 
 from __future__ import annotations
 
 from collections.abc import Iterator
 
+from satorder.model.outcome import open_pairs, state
 from satorder.model.requirement import Kind, Requirement
-from satorder.render.explanation_text import requirement_text
+from satorder.model.wording import requirement_text
 
-MEANING = {
-    "comparable": "must be ordered, one way or the other",
-    "incomparable": "must stay unordered",
-    "fixed": "the first must come before the second",
-    "forbidden": "the first may not come before the second",
-    "open": "free: ordered either way or left unordered",
-    "prefer": "wished-for arc, given up only at its weight",
-}
+MEANING = {kind: requirement_text((kind, (0, 1)), ["a", "b"], form="clause", weight="w")
+           for kind in ("comparable", "incomparable", "fixed", "forbidden", "open", "prefer")}
 
 
 def requirement_counts(problem) -> list[tuple[str, int, str]]:
-    """``(kind, count, meaning)`` for every kind the problem has."""
-    n = problem.n
+    """``(kind, count, meaning)`` for every kind the problem has (the meaning in the one
+    wording, over two items a and b)."""
     fixed_pairs = {frozenset(a) for a in problem.fixed}
     comparable = problem.num_comparable - sum(1 for a, b in fixed_pairs if b in problem.adj[a])
     rows = [("comparable", comparable, MEANING["comparable"])]
@@ -40,8 +38,7 @@ def requirement_counts(problem) -> list[tuple[str, int, str]]:
                      "every pair not listed as comparable must stay unordered"))
     else:
         rows.append(("incomparable", problem.num_incomparable, MEANING["incomparable"]))
-        free = n * (n - 1) // 2 - problem.num_comparable - problem.num_incomparable
-        rows.append(("open", free, MEANING["open"]))
+        rows.append(("open", problem.num_open, MEANING["open"]))
     rows += [("fixed", len(problem.fixed), MEANING["fixed"]),
              ("forbidden", len(problem.forbidden), MEANING["forbidden"])]
     if problem.prefer:
@@ -49,23 +46,11 @@ def requirement_counts(problem) -> list[tuple[str, int, str]]:
     return [r for r in rows if r[1] or r[0] in ("comparable", "incomparable")]
 
 
-def _state(kind: Kind, a: int, b: int, succ, names) -> str:
-    if succ is None:
-        return "—"
-    ab, ba = b in succ[a], a in succ[b]
-    if kind == Kind.COMPARABLE:
-        if ab or ba:
-            return f"holds: {names[a] if ab else names[b]} first"
-        return "broken: left unordered"
-    if kind == Kind.INCOMPARABLE:
-        return "broken: ordered" if ab or ba else "holds"
-    if kind == Kind.FIXED:
-        return "holds" if ab else "broken"
-    return "broken" if ab else "holds"  # forbidden
-
-
 def requirement_rows(problem, succ=None, core=None, unmet=None) -> Iterator[tuple[str, str, str]]:
-    """``(kind, requirement in words, state)`` for each requirement (see the module doc)."""
+    """``(kind, requirement in words, state)`` for each requirement (see the module doc); the
+    words come from :func:`satorder.model.wording.requirement_text` and the state from
+    :func:`satorder.model.outcome.state`, as in ``solve``'s own table and JSON.  ``unmet`` is
+    accepted for callers that have it; a preference's state is read off the order itself."""
     names = problem.items
     in_core = set()
     for r in core or ():
@@ -77,7 +62,7 @@ def requirement_rows(problem, succ=None, core=None, unmet=None) -> Iterator[tupl
         for a, b in pairs:
             r = Requirement(kind, (a, b))
             if r not in in_core:
-                yield kind.value, requirement_text(r, names), _state(kind, a, b, succ, names)
+                yield kind.value, requirement_text(r, names), state(kind, a, b, succ, names)[1]
 
     fixed_pairs = {frozenset(a) for a in problem.fixed}
     yield from rows(Kind.FIXED, problem.fixed)
@@ -86,8 +71,9 @@ def requirement_rows(problem, succ=None, core=None, unmet=None) -> Iterator[tupl
                                       if frozenset((a, b)) not in fixed_pairs))
     if problem.incomparable is not None:
         yield from rows(Kind.INCOMPARABLE, problem.incomparable_pairs())
-    given_up = {(a, b) for a, b, _ in unmet or ()}
+        for a, b in open_pairs(problem):
+            yield "open", requirement_text(("open", (a, b)), names), \
+                state("open", a, b, succ, names)[1]
     for a, b, w in problem.prefer:
-        state = "—" if succ is None else (
-            f"given up (costs {w})" if (a, b) in given_up else "met")
-        yield "prefer", f"{names[a]} before {names[b]} (weight {w})", state
+        yield ("prefer", requirement_text(("prefer", (a, b)), names, weight=w),
+               state("prefer", a, b, succ, names, weight=w)[1])

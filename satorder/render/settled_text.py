@@ -5,10 +5,12 @@ and the explanation of ``--why A B``."""
 from __future__ import annotations
 
 from rich.console import Console
+from rich.table import Table
 
 from satorder.explanation.derivation import describe
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
-from satorder.render.explanation_text import MAX_STEPS, requirement_text
+from satorder.model.wording import requirement_text
+from satorder.render.explanation_text import MAX_STEPS
 
 SHOW = 60  # pairs listed per group before "… and N more"
 
@@ -37,9 +39,7 @@ def print_settled(res, console: Console, show: int = SHOW) -> None:
     console.print(f"[bold {colour}]{res.status.upper()}[/]  {p.n} items, {p.num_comparable} "
                   f"comparable pairs  ({check})")
     if res.status == INFEASIBLE:
-        console.print("No order meets every requirement, so nothing is settled or free. "
-                      f"Run [bold]satorder explain {p.source}[/] for a minimal core and a "
-                      "derivation.")
+        _print_no_answer(res.answer, names, console, p.source)
         return
     if res.status != FEASIBLE:
         for note in res.notes:
@@ -92,6 +92,10 @@ def print_why(why, console: Console) -> None:
     names = why.problem.items
     a, b = (names[v] for v in why.pair)
     check = "[green]verified[/]" if why.verified else "[red]not verified[/]"
+    if why.status == INFEASIBLE:
+        console.print(f"[bold red]INFEASIBLE[/] ({check})")
+        _print_no_answer(why.answer, names, console, why.problem.source)
+        return
     if why.status != FEASIBLE:
         console.print(f"[bold]{why.status.upper()}[/]: {'; '.join(why.notes)}")
         return
@@ -116,13 +120,16 @@ def print_why(why, console: Console) -> None:
     console.print(f"\nThese {len(members)} requirements force it: together with the opposite "
                   f"([italic]{opposite}[/]) they admit no order, and without any one of them "
                   "the opposite can hold.")
-    for k, r in enumerate(why.core):
-        mark = "   [italic](the opposite, supposed)[/]" if r == why.opposite else ""
-        console.print(f"  {k:>3}  {r.kind:<12} {requirement_text(r, sn)}{mark}",
-                      highlight=False)
+    table = Table(show_header=True, header_style="bold")
+    table.add_column("row", justify="right")
+    table.add_column("requirement")
+    for k, r in enumerate(why.core, 1):
+        mark = "  [italic](the opposite, supposed)[/]" if r == why.opposite else ""
+        table.add_row(str(k), requirement_text(r, sn) + mark)
+    console.print(table)
     if why.steps is not None:
         console.print("\n[bold]Derivation[/] (cases are indented; each step cites earlier "
-                      "steps and rows above):")
+                      "steps and the rows above):")
         for st in why.steps[:MAX_STEPS]:
             claim, because = describe(st, why.core, sn)
             style = "bold red" if st.arc is None else ("cyan" if st.rule == "assume" else "")
@@ -134,3 +141,13 @@ def print_why(why, console: Console) -> None:
         console.print("  [dim]Every step was replayed by the independent checker.[/]")
     for note in why.notes:
         console.print(f"[yellow]Note: {note}[/]")
+
+
+
+def _print_no_answer(answer, names, console: Console, source: str) -> None:
+    """No answer at all: why, as ``solve`` shows it (core numbered from 1, or forcing chain)."""
+    from satorder.render.answer_text import print_no_answer
+
+    console.print("No order meets every requirement, so no pair is settled or free.")
+    if answer is not None:
+        print_no_answer(answer, names, console, source)

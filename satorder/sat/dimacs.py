@@ -39,6 +39,11 @@ def to_dimacs(enc, assume_selectors: bool = True) -> str:
     ]
     if enc.problem.prefer:
         lines.append("c preferences are soft wishes and are not part of this CNF")
+    if enc.unsat_reason is not None:
+        why = "; ".join(f"{kind} {_q(names[a])} {_q(names[b])}"
+                        for kind, (a, b) in enc.unsat_reason)
+        lines.append(f"c no order exists (the empty clause below): these requirements clash: "
+                     f"{why}")
     lines += [f"c {lit} {text}" for lit, text in variable_names(enc)]
     for (kind, (a, b)), s in sorted(enc.selector_of.items(), key=lambda t: t[1]):
         lines.append(f"c selector {s} {kind} {_q(names[a])} {_q(names[b])}")

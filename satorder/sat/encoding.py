@@ -46,10 +46,11 @@ Interface (stable; explain, count, MaxSAT and benchmark code build on it)
 * ``pair_literals()`` → ``(a, b, lit a<b, lit b<a)`` for every pair with variables;
   ``has_pair(a, b)``; ``num_classes`` → implication classes merged; ``phase_hints`` → preferred
   literals for a solver's phases (comparable pairs upwards by id, other pairs unordered).
-* ``unsat_reason`` → requirement keys of an implication class holding an arc and its reverse
-  (the CNF then holds the empty clause); ``origin[k]`` → why clause ``hard[k]`` is there;
-  ``requirements_behind(clause_ids)`` → requirements implying those clauses (cores without
-  selectors: see :mod:`satorder.sat`).
+* ``unsat_reason`` → requirement keys of an implication class holding an arc and its reverse,
+  or the two requirements of a clash on one pair (:meth:`Problem.contradictions`), when
+  selectors are off (the CNF then holds the empty clause); ``origin[k]`` → why clause
+  ``hard[k]`` is there; ``requirements_behind(clause_ids)`` → requirements implying those
+  clauses (cores without selectors: see :mod:`satorder.sat`).
 * ``to_dimacs()`` → DIMACS CNF text with ``c`` lines naming each variable and selector.
 
 >>> from satorder.model.problem import Problem
@@ -65,9 +66,8 @@ from collections.abc import Iterable, Iterator
 from itertools import islice
 
 import numpy as np
-from scipy.sparse.csgraph import connected_components
 
-from satorder.graph.forcing import implication_ties, tie_graph
+from satorder.graph.forcing import implication_ties, tie_components, tie_graph
 from satorder.model.problem import Problem
 from satorder.model.requirement import Kind, Requirement
 from satorder.sat.dimacs import to_dimacs
@@ -117,6 +117,12 @@ class Encoding:
         else:
             for a, b in problem.comparable_pairs():
                 self._make_pair(a, b)
+        if not selectors:
+            clash = problem.contradictions()
+            if clash:  # two requirements clash on one pair: no order, nothing to search
+                if self.unsat_reason is None:
+                    self.hard.append([])
+                self.unsat_reason = list(clash[0])
         for a, b in problem.fixed:
             lit = self.lt(a, b)
             if self.selectors:
@@ -174,7 +180,8 @@ class Encoding:
         p = self.problem
         key = a * self.n + b
         comparable = b in p.adj[a]
-        unordered = not comparable and p.must_be_unordered(a, b)
+        # with selectors a pair may be both (a clash, to be named by a core)
+        unordered = p.must_be_unordered(a, b) and (self.selectors or not comparable)
         if unordered and not self.selectors:
             return None
         if comparable and not self.selectors:
@@ -188,7 +195,7 @@ class Encoding:
             self.phase_hints += [up, -down] if comparable else [-up, -down]
             if comparable:
                 self.hard.append([-self.selector(Kind.COMPARABLE, (a, b)), up, down])
-            elif unordered:
+            if unordered:
                 s = self.selector(Kind.INCOMPARABLE, (a, b))
                 self.hard.append([-s, -up])
                 self.hard.append([-s, -down])
@@ -218,9 +225,9 @@ class Encoding:
             return
         eid = {a * n + b: k for k, (a, b) in enumerate(edges)}
         # node 2e: edge e as lo<hi; node 2e+1: hi<lo
-        graph = tie_graph(m, src, dst, fl)
-        _, comp = connected_components(graph, directed=False)
-        self._ties = (graph, edges, eid)  # kept to explain refutations (requirements_behind)
+        _, comp = tie_components(m, src, dst, fl)
+        # kept to explain refutations (requirements_behind); the sparse graph is built then
+        self._ties = ((m, src, dst, fl), edges, eid)
         c0, c1 = comp[0::2], comp[1::2]
         # one variable per class pair {c, reverse c}: numbered by the smaller component id
         key = np.minimum(c0, c1)
@@ -237,7 +244,7 @@ class Encoding:
         bad = np.flatnonzero(c0 == c1)
         if len(bad):
             self.hard.append([])
-            self.unsat_reason = conflict_core(graph, int(bad[0]), edges)
+            self.unsat_reason = conflict_core(tie_graph(m, src, dst, fl), int(bad[0]), edges)
 
     def requirements_behind(self, clause_ids: Iterable[int]) -> list[Key] | None:
         """Requirements that imply the given clauses of a collapsed encoding (selectors off):
@@ -274,7 +281,8 @@ class Encoding:
                 pair_req(b, c)
                 pair_req(a, c)
         if getattr(self, "_ties", None) is not None:
-            graph, edges, eid = self._ties
+            ties, edges, eid = self._ties
+            graph = None
             by_var: dict[int, list[int]] = {}
             for a, b in used:
                 lit = self.lt(a, b)
@@ -286,6 +294,7 @@ class Encoding:
             for nodes in by_var.values():
                 targets = set(nodes[1:]) - {nodes[0]}
                 if targets:
+                    graph = tie_graph(*ties) if graph is None else graph
                     steps = tie_paths(graph, nodes[0], targets, edges)
                     if steps is None:
                         return None

@@ -45,9 +45,12 @@ def solve_sat(problem: Problem, solver: str | None = None,
     elif res is None:
         ans = Answer(problem, UNKNOWN, "sat", stats=stats)
     else:
-        if s.enc.unsat_reason is not None:  # an implication class holds an arc and its reverse
+        if s.enc.unsat_reason is not None:  # a clash on one pair, or an implication class
             core, core_stats = shrink_candidate(problem, s.enc.unsat_reason, name, deadline)
-            core_stats["method"] = "implication class conflict"
+            core_stats["method"] = ("requirements clashing on one pair"
+                                    if len(s.enc.unsat_reason) == 2 and
+                                    len({frozenset(r.pair) for r in s.enc.unsat_reason}) == 1
+                                    else "implication class conflict")
         else:  # the session's solver is closed; its encoding is what counts
             core, core_stats = core_via_clauses(s, problem, deadline)
             core_stats["method"] = "clause provenance"

@@ -48,10 +48,15 @@ class FoundOrder:
         return list(order_ops.pairs(self.succ))
 
 
+# why an enumeration stopped (``EnumerationEnd.reason``; the consumer sets INTERRUPTED when
+# Ctrl-C cuts the listing short)
+COMPLETE, LIMIT, TIME_LIMIT, INTERRUPTED = "complete", "limit", "time-limit", "interrupted"
+
+
 @dataclass
 class EnumerationEnd:
     """Why an enumeration stopped: ``complete`` (every answer was produced), or the limit or
-    the time limit was reached first."""
+    the time limit was reached first (``reason``, one of the names above)."""
 
     found: int = 0
     complete: bool = False
@@ -66,7 +71,6 @@ def enumerate_orders(problem: Problem, limit: int | None = None, solver: str | N
     ``limit`` of them and none after ``time_limit`` seconds.  Pass an :class:`EnumerationEnd`
     as ``end`` to learn whether the enumeration was complete."""
     from satorder.sat import runner
-    from satorder.sat.session import SatSession
 
     end = end if end is not None else EnumerationEnd()
     t0 = time.monotonic()
@@ -74,8 +78,17 @@ def enumerate_orders(problem: Problem, limit: int | None = None, solver: str | N
     solver = runner.resolve_solver(solver, time_limit)
     end.found, end.complete, end.reason = 0, False, ""
     if limit is not None and limit <= 0:
-        end.reason = "limit"
+        end.reason = LIMIT
         return
+    try:
+        yield from _enumerate(problem, limit, solver, deadline, end)
+    finally:  # also when the consumer stops early or Ctrl-C arrives
+        end.seconds = round(time.monotonic() - t0, 6)
+
+
+def _enumerate(problem, limit, solver, deadline, end) -> Iterator[FoundOrder]:
+    from satorder.sat.session import SatSession
+
     with SatSession(problem, solver=solver) as s:
         enc = s.enc
         if problem.incomparable is not None:  # open pairs need their variables from the start
@@ -86,10 +99,10 @@ def enumerate_orders(problem: Problem, limit: int | None = None, solver: str | N
         while True:
             res = s.solve(deadline=deadline)
             if res is None:
-                end.reason = "time limit"
+                end.reason = TIME_LIMIT
                 break
             if res is False:
-                end.complete, end.reason = True, "complete"
+                end.complete, end.reason = True, COMPLETE
                 break
             succ = [set(x) for x in s.order()]
             end.found += 1
@@ -99,9 +112,8 @@ def enumerate_orders(problem: Problem, limit: int | None = None, solver: str | N
                 # one more call tells whether the list happens to be complete
                 more = s.solve(deadline=deadline)
                 end.complete = more is False
-                end.reason = "complete" if more is False else "limit"
+                end.reason = COMPLETE if more is False else LIMIT
                 break
-    end.seconds = round(time.monotonic() - t0, 6)
 
 
 def _blocking_clause(enc, succ: list[set[int]]) -> list[int]:

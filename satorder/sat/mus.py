@@ -193,37 +193,57 @@ class SessionOracle:
         self.close()
 
 
-def core_oracle(requirements: list[Requirement], all_triples_items: int = 30):
-    """The all-triples oracle for few items, the SAT engine's session for more (when present)."""
+def core_oracle(requirements: list[Requirement], all_triples_items: int = 30,
+                deadline: float | None = None):
+    """The all-triples oracle for few items, the SAT engine's session for more (when present);
+    its checks raise :class:`~satorder.errors.TimeLimitReached` past ``deadline``."""
     items = len(items_of(requirements))
     if items > all_triples_items:
         try:
-            return SessionOracle(requirements)
+            return SessionOracle(requirements, deadline)
         except ImportError:
             pass
-    return RequirementOracle(requirements)
+    return RequirementOracle(requirements, deadline)
+
+
+class CutShort(Exception):
+    """Shrinking a core stopped before it was minimal: ``current`` (requirement indices) is
+    still infeasible, as the oracle showed; ``reason`` is ``"time-limit"`` or
+    ``"interrupted"`` (Ctrl-C)."""
+
+    def __init__(self, current: list[int], reason: str):
+        super().__init__(f"core shrinking stopped ({reason}) at {len(current)} requirements")
+        self.current = current
+        self.reason = reason
 
 
 def minimal_core(oracle, start: Iterable[int]) -> list[int]:
     """Shrink an infeasible set of requirement indices to a minimal infeasible subset.
 
     Deletion-based with clause-set refinement; raises ``ValueError`` if ``start`` is feasible.
+    When the oracle's deadline passes or Ctrl-C arrives after the first check, raises
+    :class:`CutShort` with the smallest infeasible set reached so far.
     """
     ok, current = oracle.check(start)
     if ok:
         raise ValueError("the requirements are feasible; there is no core")
     needed: set[int] = set()
-    while True:
-        todo = [k for k in current if k not in needed]
-        if not todo:
-            return sorted(current)
-        k = todo[-1]
-        rest = [j for j in current if j != k]
-        ok, core = oracle.check(rest)
-        if ok:
-            needed.add(k)
-        else:
-            current = core  # contains every needed member: each lies in every core of `current`
+    try:
+        while True:
+            todo = [k for k in current if k not in needed]
+            if not todo:
+                return sorted(current)
+            k = todo[-1]
+            rest = [j for j in current if j != k]
+            ok, core = oracle.check(rest)
+            if ok:
+                needed.add(k)
+            else:
+                current = core  # holds every needed member: each lies in every core of `current`
+    except TimeLimitReached:
+        raise CutShort(sorted(current), "time-limit") from None
+    except KeyboardInterrupt:
+        raise CutShort(sorted(current), "interrupted") from None
 
 
 def smallest_core(

@@ -63,6 +63,8 @@ def solve_preferences(problem: Problem, solver: str | None = None,
             return got
         best = got
     enc = Encoding(problem)
+    if enc.unsat_reason is not None:  # the hard requirements clash: no order at all
+        return _infeasible(problem, solver, deadline, stats, t0)
     softs = []
     always = 0  # weight of preferences no answer can meet
     for a, b, w in problem.prefer:

@@ -76,6 +76,24 @@ def resolve_solver(name: str | None, time_limit: float | None = None) -> str:
     return key
 
 
+@cache
+def working_solvers() -> tuple[str, ...]:
+    """The back ends of :data:`SOLVERS` that python-sat can start in this installation, each
+    tried on a one-clause formula (microseconds each; a build without a back end fails here
+    instead of in the middle of a benchmark)."""
+    from pysat.solvers import Solver
+
+    able = []
+    for name in SOLVERS:
+        try:
+            with Solver(name=name, bootstrap_with=[[1]]) as s:
+                if s.solve():
+                    able.append(name)
+        except Exception:  # python-sat raises its own errors for a back end it lacks
+            continue
+    return tuple(able)
+
+
 def _cannot_stop(name: str) -> InputError:
     able = [s for s in SOLVERS if family(s) != "none"]
     return InputError(f"SAT solver {name} cannot be stopped at a time limit (python-sat can "

@@ -12,8 +12,6 @@ refutation by the requirements it used.
 
 from __future__ import annotations
 
-from scipy.sparse.csgraph import breadth_first_order
-
 from satorder.model.requirement import Kind, Requirement
 
 Arc = tuple[int, int]
@@ -46,6 +44,8 @@ def _pair_key(kind: Kind, pair: Arc) -> Key:
 def tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key] | None:
     """Requirements along breadth-first paths of Γ steps from arc node ``root`` to each target
     (None if a target is not reachable, which would be a bug)."""
+    from scipy.sparse.csgraph import breadth_first_order
+
     _, pred = breadth_first_order(graph, root, directed=False, return_predecessors=True)
     out: dict[Key, None] = {}
     try:
@@ -62,6 +62,8 @@ def tie_paths(graph, root: int, targets: set[int], edges: list[Arc]) -> list[Key
 def conflict_core(graph, e: int, edges: list[Arc]) -> list[Key]:
     """Requirements along a shortest chain of Γ steps from edge e's arc to its reverse: the
     comparable pairs of the chain and the pairs that must stay unordered forcing each step."""
+    from scipy.sparse.csgraph import breadth_first_order
+
     _, pred = breadth_first_order(graph, 2 * e, directed=False, return_predecessors=True)
     core: list[Key] = []
     for _, later, witness in _gamma_steps_back(pred, 2 * e, 2 * e + 1, edges):

@@ -65,7 +65,7 @@ def test_forcing_run_row_has_the_contract_fields():
                 "variables", "clauses"):
         assert key in row
     assert row["status"] == "feasible" and row["verified"] is True
-    assert row["items"] == 8 and row["peak_mb"] > 1
+    assert row["item_count"] == 8 and row["peak_mb"] > 1
 
 
 def test_forcing_skips_problems_with_side_constraints_and_says_why():
@@ -177,7 +177,9 @@ def test_cli_runs_resumes_and_plots(tmp_path, capsys):
     png = tmp_path / "p.png"
     args = ["bench", str(d), "--backend", "forcing", "bench_plugins:raises", "--timeout", "20",
             "--jobs", "2", "--out", str(out), "--plot", str(png)]
-    assert main(args) == 0
+    assert main(args) == 1  # the back end that raises gives rows with status error: exit 1
+    printed = capsys.readouterr()
+    assert "5 runs ended in error or crash" in printed.err
     rows = _rows(out)
     keys = [(r["instance"], r["backend"]) for r in rows]
     assert len(keys) == len(set(keys)) == 10
@@ -185,10 +187,10 @@ def test_cli_runs_resumes_and_plots(tmp_path, capsys):
     assert by[(SIDE, "forcing")]["status"] == "skipped"
     assert by[(PLAIN[3], "forcing")]["status"] == "infeasible"
     assert png.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
-    table = capsys.readouterr().out
+    table = printed.out
     assert "forcing" in table and "solved" in table
     before = out.read_text()
-    assert main(args[:-2]) == 0  # nothing left: no run repeated (and no second plot)
+    assert main(args[:-2]) == 1  # nothing left: no run repeated (and no second plot)
     assert out.read_text() == before
 
 
@@ -199,7 +201,9 @@ def test_cli_exits_1_on_disagreement_and_2_on_bad_usage(tmp_path, capsys):
                  "--out", str(out)]) == 1
     assert "disagree" in capsys.readouterr().err
     assert main(["bench", str(d), "--backend", "nosuchsolver", "--out", str(out)]) == 2
-    assert main(["bench", str(d), "--timeout", "0", "--out", str(out)]) == 2
+    with pytest.raises(SystemExit) as stop:  # argparse checks the value: a usage error
+        main(["bench", str(d), "--time-limit", "0", "--out", str(out)])
+    assert stop.value.code == 2
     assert main(["bench", str(tmp_path / "missing"), "--out", str(out)]) == 2
     assert main(["bench", str(d), "--out", str(d / PLAIN[0])]) == 2  # would overwrite input
 
@@ -221,9 +225,10 @@ def test_interrupt_then_resume_loses_and_repeats_nothing(tmp_path):
     while time.time() < deadline and (not out.exists() or out.read_text().count("\n") < 2):
         time.sleep(0.05)
     os.killpg(proc.pid, signal.SIGINT)
-    _, stderr = proc.communicate(timeout=60)
+    stdout, stderr = proc.communicate(timeout=60)
     assert proc.returncode == 130, stderr
     assert "interrupted" in stderr
+    assert "bench_plugins:slow_forcing" in stdout  # the summary of the runs that finished
     first = out.read_text()
     assert first.endswith("\n")
     rows = [json.loads(line) for line in first.splitlines()]  # every line a complete row

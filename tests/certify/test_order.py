@@ -4,12 +4,16 @@ from __future__ import annotations
 
 import random
 
+import pytest
+
 from satorder.certify import order as certify
 from satorder.model.order import transitive_closure
 
 
-def test_compiled_transitivity_check_finds_the_same_faults():
-    # the compiled check (orders over 64 items) against the set-based one on planted faults
+@pytest.mark.parametrize("compiled_from", [0, 10**12])  # compiled loop, then the set-based one
+def test_compiled_transitivity_check_finds_the_same_faults(monkeypatch, compiled_from):
+    # both paths of the check on the same planted faults (the same seed for each)
+    monkeypatch.setattr(certify, "COMPILED_FROM", compiled_from)
     rnd = random.Random(8)
     for _ in range(40):
         n = rnd.randint(65, 120)

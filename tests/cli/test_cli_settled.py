@@ -115,3 +115,25 @@ def test_bad_input_exit_two_one_line(dig, tmp_path, args, message):
     code, out, err = _run(*argv)
     assert code == 2 and message in err and len(err.strip().splitlines()) == 1
     assert "Traceback" not in err and not os.path.exists(target)
+
+
+def test_contradicting_problem_is_infeasible_with_its_core(tmp_path, capsys):
+    # an arc fixed both ways (two sources disagreeing) is infeasibility, not bad input
+    clash = tmp_path / "clash.json"
+    clash.write_text(json.dumps({**DIG, "fixed": DIG["fixed"] + [["ash-layer", "floor"]]}))
+    want = {("fixed", ("floor", "ash-layer")), ("fixed", ("ash-layer", "floor"))}
+    assert main(["settled", str(clash), "--json"]) == 0
+    doc = json.loads(capsys.readouterr().out)
+    assert doc["status"] == "infeasible" and doc["answers"] == 0 and doc["pairs"] == []
+    assert {(r["kind"], tuple(r["pair"])) for r in doc["core"]} == want and doc["verified"]
+    assert main(["sample", str(clash), "-k", "3"]) == 0
+    lines = [json.loads(x) for x in capsys.readouterr().out.splitlines()]
+    assert len(lines) == 1 and lines[0]["status"] == "infeasible" and lines[0]["found"] == 0
+    assert {(r["kind"], tuple(r["pair"])) for r in lines[0]["core"]} == want
+    assert main(["settled", str(clash), "--why", "pit-b", "wall", "--json"]) == 0
+    doc = json.loads(capsys.readouterr().out)
+    assert doc["status"] == "infeasible" and not doc["settled"]
+    assert {(r["kind"], tuple(r["pair"])) for r in doc["core"]} == want
+    assert main(["settled", str(clash)]) == 0
+    text = capsys.readouterr().out
+    assert "fixed: ash-layer must come before floor" in text and "cannot all hold" in text

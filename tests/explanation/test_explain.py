@@ -288,7 +288,8 @@ def test_cli_rich_output_shows_core_derivation_and_repairs(tmp_path, capsys):
     assert main(["explain", path, "--repairs", "3", "--smallest"]) == 0
     out = capsys.readouterr().out
     assert "Minimal core" in out and "contradiction" in out and "Repairs" in out
-    assert "kiln, quay must stay unordered" in out
+    assert "incomparable: kiln and quay must stay unordered" in out
+    assert "drop the requirement that" in out and "row 1 (" in out
 
 
 @pytest.mark.parametrize("argv, words", [

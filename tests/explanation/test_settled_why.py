@@ -76,8 +76,9 @@ def test_every_pair_explained_and_checked(seed):
     feasible = bool(list(brute_answers(p)))
     for a, b in itertools.combinations(range(p.n), 2):
         why = why_settled(p, p.items[a], p.items[b])
-        if not feasible:  # no answer at all: nothing to settle, and it says so
-            assert why.status == "infeasible" and not why.verified
+        if not feasible:  # no answer at all: nothing to settle, solve's core says why
+            assert why.status == "infeasible" and not why.possible
+            assert why.verified and why.to_json()["core"]
             continue
         assert why.possible == _relations(p, a, b)
         _check(p, why)

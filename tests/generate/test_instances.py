@@ -73,7 +73,7 @@ def test_every_manifest_expectation_holds(suite):
     for e in _manifest(suite)["instances"]:
         p = read_problem(os.path.join(folder, e["file"]))
         where = f"{suite}/{e['file']}"
-        assert p.n == e["items"] and p.num_comparable == e["comparable_pairs"], where
+        assert p.n == e["item_count"] and p.num_comparable == e["comparable_pairs"], where
         if p.is_plain:
             ans = solve(p, engine="forcing")  # certified inside solve()
         elif _has_sat():

@@ -133,7 +133,7 @@ def test_compiled_union_find_matches_scipy_components():
     from scipy.sparse.csgraph import connected_components
 
     from satorder.graph import kernels as _kernels
-    from satorder.graph.forcing import tie_graph
+    from satorder.graph.forcing import _doubled_components_py, tie_graph
 
     rnd = np.random.default_rng(3)
     for _ in range(30):
@@ -145,3 +145,47 @@ def test_compiled_union_find_matches_scipy_components():
         _, ref = connected_components(tie_graph(m, e1, e2, fl), directed=False)
         pairs = set(zip(ours.tolist(), ref.tolist()))
         assert len(pairs) == len(set(ours.tolist())) == len(set(ref.tolist()))
+        # the pure-Python twin (small graphs) labels exactly as the kernel does
+        count, twin = _doubled_components_py(m, e1.tolist(), e2.tolist(), fl.tolist())
+        assert twin == ours.tolist() and count == len(set(ours.tolist()))
+
+
+def test_small_graph_path_gives_the_array_path_answer(monkeypatch):
+    # below KERNELS_FROM edges the forcing algorithm runs on plain lists (no numpy, no numba);
+    # it must give the very same orientation, class count and verdict as the array path
+    import random
+
+    import networkx as nx
+
+    from satorder.graph import forcing
+
+    rnd = random.Random(11)
+    graphs = [nx.gnp_random_graph(rnd.randint(2, 14), rnd.random(), seed=rnd.randint(0, 10**6))
+              for _ in range(60)]
+    for _ in range(20):  # comparability graphs of random orders (orientable)
+        n = rnd.randint(3, 30)
+        g = nx.Graph()
+        g.add_nodes_from(range(n))
+        g.add_edges_from(_random_dag(n, rnd).edges())
+        graphs.append(g)
+    for g in graphs:
+        adj = [set(g[v]) for v in range(g.number_of_nodes())]
+        small = forcing.transitive_orientation(adj)
+        with monkeypatch.context() as m:
+            m.setattr(forcing, "KERNELS_FROM", 0)
+            array = forcing.transitive_orientation(adj)
+        assert small.orientable == array.orientable
+        assert small.num_classes == array.num_classes
+        if small.orientable:
+            assert isinstance(small.up, list)  # the list path answered
+            assert list(small.arcs()) == list(array.arcs())
+            assert small.successor_sets() == array.successor_sets()
+
+
+def _random_dag(n, rnd):
+    import networkx as nx
+
+    d = nx.DiGraph()
+    d.add_nodes_from(range(n))
+    d.add_edges_from((a, b) for a in range(n) for b in range(a + 1, n) if rnd.random() < 0.15)
+    return nx.transitive_closure_dag(d)

@@ -167,7 +167,7 @@ def test_measure_cli_json_with_weights(tmp_path):
     doc = {
         "comparable": [["sift", "knead"], ["knead", "bake"], ["sift", "bake"],
                        ["proof", "bake"], ["proof", "knead"]],
-        "items": ["glaze"],
+        "items": ["sift", "knead", "bake", "proof", "glaze"],
         "weights": {"glaze": 7, "sift": 2},
     }
     f = tmp_path / "bakery.json"
@@ -214,8 +214,10 @@ def test_measure_cli_keeps_its_time_limit_on_the_standard_example_s11(tmp_path, 
         lower, upper = res["dimension_bounds"]
         assert 3 <= lower <= 11 <= upper
         assert res["dimension_witness"]["dimension_at_least"] == lower
-    assert main(["measure", str(f), "--time-limit", "0"]) == 2  # not a time limit
-    assert "--time-limit must be positive" in capfd.readouterr().err
+    with pytest.raises(SystemExit) as stop:  # not a time limit: a usage error from argparse
+        main(["measure", str(f), "--time-limit", "0"])
+    assert stop.value.code == 2
+    assert "--time-limit: must be positive" in capfd.readouterr().err
 
 
 def test_measure_on_solved_problem_matches_networkx():

@@ -164,7 +164,7 @@ def test_cli_count_bad_input(tmp_path, capsys):
 def test_cli_count_rejects_decomposition_with_open_pairs(tmp_path, capsys):
     path = tmp_path / "open.json"
     path.write_text(json.dumps({"comparable": [["a", "b"]], "incomparable": [],
-                                "items": ["c"]}))
+                                "items": ["a", "b", "c"]}))
     assert main(["count", str(path), "--method", DECOMPOSITION]) == 2
     assert "open pairs" in capsys.readouterr().err
     # the same file by enumeration: 3 items with a, b comparable and the other pairs open;

@@ -130,8 +130,10 @@ def test_explanation_legend_names_only_the_kinds_drawn():
     expl = explain(Problem.from_lists(comparable=ring))
     labels = legend_labels(explanation_svg(expl))
     drawn_kinds = {r.kind for r in expl.core}
-    assert ("core: must be ordered" in labels) == ("comparable" in drawn_kinds)
-    assert ("core: must stay unordered" in labels) == ("incomparable" in drawn_kinds)
+    assert ("core, comparable: a and b must be ordered, one way or the other" in labels) == (
+        "comparable" in drawn_kinds)
+    assert ("core, incomparable: a and b must stay unordered" in labels) == (
+        "incomparable" in drawn_kinds)
     assert not any("fixed" in t or "forbidden" in t for t in labels)
     core_pairs = {frozenset(r.pair) for r in expl.core}
     others = [p for p in ring if frozenset(expl.problem.index[x] for x in p) not in core_pairs]
@@ -146,4 +148,5 @@ def test_explanation_legend_names_only_the_kinds_drawn():
     core = [Requirement("comparable", (ix[a], ix[b])) for a, b in ring]
     svg = explanation_svg(Explanation(p, "infeasible", core=core))
     assert 'class="graph"' in svg
-    assert legend_labels(svg) == ["core: must be ordered", "other comparable pair"]
+    assert legend_labels(svg) == ["core, comparable: a and b must be ordered, one way or the "
+                                  "other", "other comparable pair"]

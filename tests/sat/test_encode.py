@@ -162,14 +162,10 @@ def test_cnf_command_writes_dimacs(tmp_path, capsys):
 
 
 @pytest.mark.parametrize("doc, msg", [
-    ({"comparable": [["a", "b"]], "incomparable": [["a", "b"]]}, "incomparable"),
-    ({"fixed": [["a", "b"], ["b", "a"]]}, "fixed the other way"),
-    ({"fixed": [["a", "b"]], "forbidden": [["a", "b"]]}, "forbidden"),
     ({"forbidden": [["a", "a"]]}, "two different items"),
     ({"fixed": "a b"}, "fixed"),
     ({"incomparable": "some"}, "others"),
-    ({"comparable": [["a", "b"]], "incomparable": [["a", "c"]], "fixed": [["c", "a"]]},
-     "incomparable"),
+    ({"items": ["a", "b"], "fixed": [["a", "c"]]}, "'c' is not in"),
 ])
 def test_bad_input_for_side_constraint_keys_exits_2(tmp_path, capsys, doc, msg):
     src = _write(tmp_path, doc)
@@ -237,6 +233,13 @@ def test_ctrl_c_stops_cleanly(solver, limit):
     tiny = Problem.from_lists(fixed=[("a", "b")], incomparable=[("b", "c")])
     assert solve_sat(tiny, solver=solver).feasible  # compiled kernels loaded before the signal
     timer = threading.Timer(0.7, os.kill, (os.getpid(), signal.SIGINT))
+    # a KeyboardInterrupt raised inside a gc callback is swallowed by Python ("Exception
+    # ignored in"); hypothesis installs one once any hypothesis test has run in this process,
+    # so the engine runs here without foreign gc callbacks
+    import gc
+
+    callbacks = gc.callbacks[:]
+    gc.callbacks.clear()
     t0 = time.monotonic()
     timer.start()
     try:
@@ -245,5 +248,6 @@ def test_ctrl_c_stops_cleanly(solver, limit):
                 solve_sat(p, solver=solver, time_limit=limit)
     finally:
         timer.cancel()
+        gc.callbacks[:] = callbacks
     assert time.monotonic() - t0 < 60  # a sanity bound: it returned
     assert solve_sat(tiny, solver=solver).feasible
