@@ -5,6 +5,7 @@ explains one pair."""
 from __future__ import annotations
 
 import sys
+from contextlib import nullcontext
 
 from satorder.cli import options
 from satorder.cli.common import (
@@ -62,7 +63,7 @@ def run(args) -> int:
         return _why(args, problem)
     from satorder.pipeline.settled import settled
 
-    with err.status("settling…"):
+    with err.status("settling…") if not args.json else nullcontext():
         res = settled(problem, method=args.method, time_limit=args.time_limit,
                       solver=args.solver, seed=args.seed, samples=args.samples,
                       epsilon=args.epsilon, delta=args.delta)
@@ -87,11 +88,10 @@ def run(args) -> int:
 
 def _why(args, problem) -> int:
     from satorder.explanation.settled_why import why_settled
-    from satorder.render.settled_text import print_why
 
     if args.report:
         raise UsageError("--report describes all pairs; use it without --why")
-    with err.status("explaining the pair…"):
+    with err.status("explaining the pair…") if not args.json else nullcontext():
         why = why_settled(problem, *args.why, time_limit=args.time_limit or 30.0,
                           solver=args.solver)
     if why.answer is not None and not args.json:
@@ -104,6 +104,8 @@ def _why(args, problem) -> int:
     if args.json:
         print_json(doc)
     else:
+        from satorder.render.settled_text import print_why
+
         print_why(why, out)
     return 3 if why.status == UNKNOWN else 0
 

@@ -177,8 +177,6 @@ def settled(problem: Problem, method: str = "auto", time_limit: float | None = N
             exact_limit: int = EXACT_LIMIT) -> SettledResult:
     """Pair shares and settled pairs of ``problem`` (see the module docstring).  Preferences
     rank answers but rule none out, so they are ignored.  ``seed`` fixes the random draws."""
-    from satorder.sat.modelcount import DELTA, EPSILON
-
     if method not in METHODS:
         raise ValueError(f"unknown method {method!r}; one of {', '.join(METHODS)}")
     t0 = time.perf_counter()
@@ -204,8 +202,7 @@ def settled(problem: Problem, method: str = "auto", time_limit: float | None = N
         if res is None:
             method = APPROXIMATE
     if res is None:
-        res = _by_approximation(hard, samples, EPSILON if epsilon is None else epsilon,
-                                DELTA if delta is None else delta, seed, solver, deadline)
+        res = _by_approximation(hard, samples, epsilon, delta, seed, solver, deadline)
     res.problem = problem
     if res.status == INFEASIBLE or (res.status == FEASIBLE and res.answers == 0):
         res = _infeasible(problem, res, solver, time_limit)
@@ -274,9 +271,11 @@ def _by_listing(problem: Problem, limit: int, deadline: float | None) -> Settled
 
 def _by_approximation(problem, samples, epsilon, delta, seed, solver, deadline):
     from satorder.sat.answer_formula import AnswerFormula
-    from satorder.sat.modelcount import approximate_count
+    from satorder.sat.modelcount import DELTA, EPSILON, approximate_count
     from satorder.sat.sampling import almost_uniform_samples
 
+    epsilon = EPSILON if epsilon is None else epsilon
+    delta = DELTA if delta is None else delta
     t = time.perf_counter()
     formula = AnswerFormula(problem)
     res = SettledResult(problem, UNKNOWN, APPROXIMATE, None, False, epsilon=epsilon, delta=delta)
@@ -367,33 +366,53 @@ def _check(res: SettledResult, problem: Problem, solver, deadline) -> None:
         res.stats["support_seconds"] = round(time.perf_counter() - t, 6)
         res.stats["support_calls"] = sup.calls
     if res.exact and res.answers is not None and 0 < res.answers <= RECOUNT:
-        _recount(res, problem, solver)
+        if res.method == DECOMPOSITION:
+            _recount(res, problem, *_listing_counts(problem, res.answers), "the listing engine")
+        else:
+            _recount(res, problem, *_sat_counts(problem, res.answers, solver),
+                     "a SAT enumeration of certified orders")
     res.verified = bool(res.checks)
 
 
-def _recount(res: SettledResult, problem: Problem, solver) -> None:
-    """Recount every share from a SAT enumeration of certified orders."""
+def _listing_counts(problem: Problem, answers: int):
+    """Answers and per-pair counts from the listing engine (item insertion), which shares no
+    code with the decomposition; plain Python, so small problems load no SAT solver."""
+    from satorder.graph.insertion import tally
+
+    tl = tally(problem, limit=answers + 1)
+    before = {(a, b): k for a, row in enumerate(tl.before) for b, k in enumerate(row) if k}
+    return tl.total, tl.complete, before
+
+
+def _sat_counts(problem: Problem, answers: int, solver):
+    """Answers and per-pair counts from a SAT enumeration, every order certified."""
     from satorder.pipeline.orders import EnumerationEnd, certified_orders
 
     end = EnumerationEnd()
     before: dict[tuple[int, int], int] = {}
-    for found in certified_orders(problem, limit=res.answers + 1, solver=solver, end=end):
+    for found in certified_orders(problem, limit=answers + 1, solver=solver, end=end):
         for a, s in enumerate(found.succ):
             for b in s:
                 before[(a, b)] = before.get((a, b), 0) + 1
-    if not end.complete or end.found != res.answers:
-        raise CertificateError(f"{res.answers} answers claimed, SAT enumeration finds "
-                               f"{end.found}{'' if end.complete else ' or more'}")
+    return end.found, end.complete, before
+
+
+def _recount(res: SettledResult, problem: Problem, found: int, complete: bool, before,
+             engine: str) -> None:
+    """Every share recounted from another engine's count of the answers (``before[(a, b)]``:
+    answers putting ``a`` before ``b``)."""
+    if not complete or found != res.answers:
+        raise CertificateError(f"{res.answers} answers claimed, {engine} finds "
+                               f"{found}{'' if complete else ' or more'}")
     for blk in res.blocks:
         for a in blk.left:
             for b in blk.right:
-                x = Fraction(before.get((a, b), 0), end.found)
-                y = Fraction(before.get((b, a), 0), end.found)
+                x = Fraction(before.get((a, b), 0), found)
+                y = Fraction(before.get((b, a), 0), found)
                 if x != blk.before or y != blk.after:
                     raise CertificateError(f"pair {problem.items[a]}, {problem.items[b]}: "
-                                           "shares differ from the SAT enumeration")
-    res.checks.append(f"every share recounted from a SAT enumeration of {end.found} certified "
-                      "orders")
+                                           f"shares differ from {engine}")
+    res.checks.append(f"every share recounted from {engine} ({found} answers)")
 
 
 def _infeasible(problem: Problem, res: SettledResult, solver, time_limit) -> SettledResult:

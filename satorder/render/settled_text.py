@@ -10,7 +10,6 @@ from rich.table import Table
 from satorder.explanation.derivation import describe
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
 from satorder.model.wording import requirement_text
-from satorder.render.explanation_text import MAX_STEPS
 
 SHOW = 60  # pairs listed per group before "… and N more"
 
@@ -89,6 +88,8 @@ WORDS = {"before": "{a} comes before {b}", "after": "{b} comes before {a}",
 
 
 def print_why(why, console: Console) -> None:
+    from satorder.render.explanation_text import MAX_STEPS  # loads the SAT layer: --why only
+
     names = why.problem.items
     a, b = (names[v] for v in why.pair)
     check = "[green]verified[/]" if why.verified else "[red]not verified[/]"
