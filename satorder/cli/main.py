@@ -25,7 +25,9 @@ class _Parser(argparse.ArgumentParser):
         raise SystemExit(2)
 
 
-def build_parser() -> argparse.ArgumentParser:
+def build_parser(only: str | None = None) -> argparse.ArgumentParser:
+    """The command-line parser; with ``only``, just that command's (its module alone is
+    imported, so a large ``solve`` does not carry every other command's libraries)."""
     parser = _Parser(
         prog="satorder",
         description="Turn pairwise evidence about items into a certified partial order, "
@@ -36,7 +38,7 @@ def build_parser() -> argparse.ArgumentParser:
     parser.add_argument("--version", action="version", version=f"satorder {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     sub.required = True
-    for name in COMMANDS:
+    for name in COMMANDS if only is None else [only]:
         module = importlib.import_module(f".{name}", __package__)
         p = module.add_parser(sub)
         p.set_defaults(run=module.run)
@@ -44,8 +46,9 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def main(argv: list[str] | None = None) -> int:
-    parser = build_parser()
     argv = sys.argv[1:] if argv is None else list(argv)
+    first = next((a for a in argv if not a.startswith("-")), None)
+    parser = build_parser(first if first in COMMANDS else None)
     args = parser.parse_args(argv)
     args.argv = argv  # the command as typed, for reports
     try:

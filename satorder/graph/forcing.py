@@ -39,11 +39,11 @@ How it is computed here (near-linear work in practice):
 from __future__ import annotations
 
 from dataclasses import dataclass
-from itertools import chain
 
 import numpy as np
 
 from satorder.graph import kernels as _kernels
+from satorder.model.adjacency import CsrSets, csr_arrays
 
 Arc = tuple[int, int]
 CHAIN_TRIES = 8  # conflicting edges tried as chain starts; the shortest chain is kept
@@ -64,41 +64,45 @@ class ForcingResult:
 
     n: int
     orientable: bool
-    lo: np.ndarray  # lo[e] < hi[e]: the endpoints of edge e
-    hi: np.ndarray
-    up: np.ndarray | None  # up[e] True: edge e oriented lo→hi
+    lo: np.ndarray | None  # lo[e] < hi[e]: the endpoints of edge e (None: see ``edges()``)
+    hi: np.ndarray | None
+    up: np.ndarray | None  # up[e] True: edge e oriented lo→hi (None: see ``succ``)
     num_classes: int  # implication classes (each counted with its reverse as one colour class)
     chain: list[ForcingStep] | None  # conflict certificate when not orientable
+    succ: CsrSets | None = None  # the orientation as compact successor sets, when computed
 
     def arcs(self):
         """The arcs of the transitive orientation (orientable graphs only)."""
-        assert self.up is not None
+        assert self.orientable
+        if self.succ is not None:  # compact result: the arcs are the successor rows
+            ptr, idx = self.succ.csr()
+            tails = np.repeat(np.arange(self.n), np.diff(ptr)).tolist()
+            yield from zip(tails, idx.tolist())
+            return
         lo, hi, up = self.lo.tolist(), self.hi.tolist(), self.up.tolist()
         for a, b, u in zip(lo, hi, up):
             yield (a, b) if u else (b, a)
 
-    def successor_sets(self) -> list[set[int]]:
-        """The orientation as successor sets (a transitive orientation is its own closure)."""
-        assert self.up is not None
-        tails = np.where(self.up, self.lo, self.hi)
-        heads = np.where(self.up, self.hi, self.lo)
-        order = np.argsort(tails, kind="stable")
-        heads_l = heads[order].tolist()
-        ends = np.cumsum(np.bincount(tails, minlength=self.n)).tolist()
-        starts = [0] + ends[:-1]
-        return [set(heads_l[s:e]) for s, e in zip(starts, ends)]
+    def successor_sets(self) -> CsrSets:
+        """The orientation as successor sets (a transitive orientation is its own closure),
+        compact: a :class:`~satorder.model.adjacency.CsrSets` that acts as a list of sets."""
+        assert self.orientable
+        if self.succ is None:
+            tails = np.where(self.up, self.lo, self.hi)
+            heads = np.where(self.up, self.hi, self.lo)
+            self.succ = CsrSets.from_arcs(self.n, tails, heads)
+        return self.succ
 
 
 def _edge_arrays(adj: list[set[int]]):
     """Endpoints ``lo < hi`` of every edge, sorted by the key ``lo * n + hi`` (the edge id is
     the rank of its key, found with ``searchsorted``: no per-pair dictionary)."""
-    n = len(adj)
-    deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
-    src = np.repeat(np.arange(n, dtype=np.int64), deg)
-    dst = np.fromiter(chain.from_iterable(adj), dtype=np.int64, count=int(deg.sum()))
+    indptr, indices = csr_arrays(adj)
+    n = len(indptr) - 1
+    src = np.repeat(np.arange(n, dtype=np.int64), np.diff(indptr))
+    dst = indices.astype(np.int64)
     keep = src < dst
-    key = src[keep] * n + dst[keep]
-    key.sort()
+    key = src[keep] * n + dst[keep]  # rows are sorted, so the keys are too
     return key // n, key % n, key
 
 
@@ -170,6 +174,11 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``.
     """
     n = len(adj)
+    if _kernels.HAVE_NUMBA:  # classes and orientation in one compiled pass, no tie arrays
+        ok, classes, sptr, sidx = _kernels.orient_classes(*csr_arrays(adj))
+        if ok:
+            return ForcingResult(n, True, None, None, None, classes, None, CsrSets(sptr, sidx))
+        del sptr, sidx  # not orientable: the tie arrays below give the chain
     lo, hi, keys, e1, e2, fl = implication_ties(adj)
     m = len(lo)
     if m == 0:
@@ -182,7 +191,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     if len(bad):
         # short certificates: try the conflicting edges whose ends have the fewest neighbours
         # (a planted odd hole's own edges rather than the big class it may be joined to)
-        deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
+        deg = np.diff(csr_arrays(adj)[0])
         picks = bad[np.argsort(deg[lo[bad]] + deg[hi[bad]], kind="stable")[:CHAIN_TRIES]]
         graph = tie_graph(m, e1, e2, fl)
         chain = min((_conflict_chain(adj, graph, int(e), lo, hi) for e in picks),
