@@ -106,7 +106,8 @@ def _intern_tokens(raw, ntok):  # pragma: no cover - compiled
     A token of at most 7 bytes is its own key (the bytes and the length packed in 64 bits), so
     it is found without touching the file again; a longer one is keyed by its hash with the top
     bit set and compared byte by byte.  The table interleaves keys and ids (one cache line per
-    probe).
+    probe).  A short token equal to the one in the same column on the previous pair (files
+    grouped by their first column repeat it line after line) skips the table.
     """
     ids = np.empty(ntok, dtype=np.int32)
     cap = 1 << 12
@@ -123,6 +124,8 @@ def _intern_tokens(raw, ntok):  # pragma: no cover - compiled
     comment = False
     size = len(raw)
     top = np.uint64(1) << np.uint64(63)
+    last_key = np.zeros(2, dtype=np.uint64)  # per column: last short key and its id
+    last_id = np.zeros(2, dtype=np.int64)
     i = 0
     while i < size:
         c = raw[i]
@@ -152,6 +155,14 @@ def _intern_tokens(raw, ntok):  # pragma: no cover - compiled
         e = i
         if e - s <= 7:
             key = packed | (np.uint64(e - s) << np.uint64(56))
+            if last_key[k % 2] == key:
+                found = last_id[k % 2]
+                ids[k] = found
+                if k % 2 == 1 and ids[k - 1] == found and loop_line < 0:
+                    loop_line = line
+                    loop_id = found
+                k += 1
+                continue
         else:
             key = h | top
         h = key
@@ -197,7 +208,7 @@ def _intern_tokens(raw, ntok):  # pragma: no cover - compiled
             table[2 * slot] = key
             table[2 * slot + 1] = np.uint64(n)
             n += 1
-            if 2 * n > cap:  # keep the load under one half: double and re-insert
+            if 4 * n > 3 * cap:  # keep the load under 3/4: double and re-insert
                 cap *= 2
                 table = np.zeros(2 * cap, dtype=np.uint64)
                 for j in range(n):
@@ -211,6 +222,9 @@ def _intern_tokens(raw, ntok):  # pragma: no cover - compiled
                     table[2 * slot] = keys[j]
                     table[2 * slot + 1] = np.uint64(j)
         ids[k] = found
+        if e - s <= 7:
+            last_key[k % 2] = key
+            last_id[k % 2] = found
         if k % 2 == 1 and ids[k - 1] == found and loop_line < 0:
             loop_line = line
             loop_id = found

@@ -110,41 +110,39 @@ class PairList:
 
 def _pairs_bytes(buf, off, sptr, sidx, row0, row1, first):  # pragma: no cover - compiled
     """The bytes ``["a","b"],["a","c"],...`` of rows ``row0..row1-1`` (a leading comma unless
-    ``first``)."""
-    size = 0
-    count = 0
+    ``first``).  Every pair's position is computed first, so the copies that follow do not
+    wait on one another."""
+    t0 = sptr[row0]
+    count = sptr[row1] - t0
+    pos = np.empty(count + 1, dtype=np.int64)
+    pos[0] = 0 if first else 1
     for a in range(row0, row1):
         la = off[a + 1] - off[a]
         for t in range(sptr[a], sptr[a + 1]):
             b = sidx[t]
-            size += la + off[b + 1] - off[b] + 3
-            count += 1
-    size += count - 1
-    if not first:
-        size += 1
-    out = np.empty(size, dtype=np.uint8)
-    k = 0
+            pos[t - t0 + 1] = la + off[b + 1] - off[b] + 4  # [a,b] and a comma
+    for j in range(count):
+        pos[j + 1] += pos[j]
+    out = np.empty(pos[count] - 1, dtype=np.uint8)  # no comma after the last pair
     if not first:
         out[0] = 44  # ,
-        k = 1
-    started = False
     for a in range(row0, row1):
+        oa = off[a]
+        la = off[a + 1] - oa
         for t in range(sptr[a], sptr[a + 1]):
             b = sidx[t]
-            if started:
-                out[k] = 44
-                k += 1
-            started = True
+            k = pos[t - t0]
             out[k] = 91  # [
-            k += 1
-            for i in range(off[a], off[a + 1]):
-                out[k] = buf[i]
-                k += 1
+            for i in range(la):
+                out[k + 1 + i] = buf[oa + i]
+            k += 1 + la
             out[k] = 44
-            k += 1
-            for i in range(off[b], off[b + 1]):
-                out[k] = buf[i]
-                k += 1
+            ob = off[b]
+            lb = off[b + 1] - ob
+            for i in range(lb):
+                out[k + 1 + i] = buf[ob + i]
+            k += 1 + lb
             out[k] = 93  # ]
-            k += 1
+            if k + 1 < len(out):
+                out[k + 1] = 44
     return out
