@@ -21,6 +21,7 @@ from satorder.jit import HAVE_NUMBA
 from satorder.model.problem import Problem, ProblemBuilder
 
 MAX_BYTES = 1 << 30  # 1 GiB: beyond this a file is refused rather than exhausting memory
+SCAN_BYTES = 1 << 20  # edge lists from 1 MiB up go to the compiled scanner (numba loads)
 JSON_KEYS = ("items", "comparable", "incomparable", "fixed", "forbidden", "prefer", "weights",
              "version", "comment")
 PREFER_KEYS = ("before", "after", "weight")
@@ -186,7 +187,8 @@ def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
     A line with one or three fields is an error (typos never pass silently).  Item ids follow
     the order in which names first appear.  With numba the bytes are scanned by compiled loops
     into compact adjacency arrays (:mod:`satorder.io.edge_scan`); otherwise, and for text
-    with non-ASCII white space, :func:`parse_edge_list_text` reads it.
+    with non-ASCII white space or under :data:`SCAN_BYTES` (where loading the compiler would
+    cost more than it saves), :func:`parse_edge_list_text` reads it.
     """
     scanned = _scan_edge_list(text.encode("utf-8"), source, text)
     return scanned if isinstance(scanned, Problem) else compact_problem(*scanned)
@@ -199,7 +201,7 @@ def _scan_edge_list(data: bytes, source: str, text: str | None = None):
             text = _decode(data, source)
         if _UNICODE_SPACE.search(text):
             return parse_edge_list_text(text, source)
-    if not HAVE_NUMBA:
+    if not HAVE_NUMBA or len(data) < SCAN_BYTES:
         return parse_edge_list_text(data.decode("utf-8") if text is None else text, source)
     items, ids = scan_tokens(data, source)
     return items, ids, source

@@ -27,6 +27,7 @@ from satorder.jit import HAVE_NUMBA, run
 from satorder.model.adjacency import CsrSets
 
 CHUNK_PAIRS = 1 << 16
+SMALL_PAIRS = 1 << 12  # up to this many pairs plain Python writes them (no compiled loop loaded)
 
 
 def write_document(doc: dict, write: Callable[[bytes], object]) -> None:
@@ -62,7 +63,8 @@ class PairList:
 
     def write_json(self, write: Callable[[bytes], object]) -> None:
         write(b"[")
-        if isinstance(self.succ, CsrSets) and self.succ.is_compact and HAVE_NUMBA:
+        if (isinstance(self.succ, CsrSets) and self.succ.is_compact and HAVE_NUMBA
+                and self.succ.total() > SMALL_PAIRS):
             self._write_compact(write)
         else:
             self._write_sets(write)

@@ -242,11 +242,20 @@ def test_atomic_write_follows_umask_and_keeps_existing_mode(tmp_path):
         os.umask(old)
 
 
-def test_json_and_out_write_the_same_streamed_document(tmp_path, capsys):
+@pytest.mark.parametrize("compact", [False, True])
+def test_json_and_out_write_the_same_streamed_document(tmp_path, capsys, monkeypatch, compact):
     # solve --json --out: the file is written in pieces (no temporary left), standard output
-    # carries the same bytes, and networkx agrees that every pair of the file is ordered
+    # carries the same bytes, and networkx agrees that every pair of the file is ordered; with
+    # ``compact`` the file takes the large-file path (scanner, arrays, array check) end to end
     import networkx as nx
 
+    from satorder.io import readers
+
+    if compact:
+        from satorder.model import json_stream
+
+        monkeypatch.setattr(readers, "SCAN_BYTES", 0)
+        monkeypatch.setattr(json_stream, "SMALL_PAIRS", 0)
     lines = [f"stall{a} stall{b}" for a in range(1, 41) for b in range(a + 1, 41) if b % a == 0]
     f = write(tmp_path, "g.txt", "\n".join(lines) + "\n")
     target = tmp_path / "answer.json"

@@ -15,6 +15,11 @@ from satorder.model.adjacency import CsrSets
 
 pytestmark = pytest.mark.skipif(not HAVE_NUMBA, reason="the compiled scanner needs numba")
 
+
+@pytest.fixture(autouse=True)
+def _scan_every_size(monkeypatch):
+    monkeypatch.setattr(readers, "SCAN_BYTES", 0)  # small files too go to the scanner here
+
 # tokens and separators that exercise comments, CRLF, repeats, long and non-ASCII names
 PIECES = ["a", "b", "c", "kiln", "loom", "quay-north-gate", "é", "naïve", "x#y", " ", "\t",
           "\n", "\r\n", "#", "  ", "\x0b", "\x1c", "a\u00a0b"]

@@ -16,6 +16,7 @@ from satorder.model.adjacency import CsrSets
 @pytest.mark.parametrize("chunk", [1, 3, 1 << 16])
 def test_pair_list_from_arrays_and_from_sets_match_json_dumps(monkeypatch, chunk):
     monkeypatch.setattr(json_stream, "CHUNK_PAIRS", chunk)
+    monkeypatch.setattr(json_stream, "SMALL_PAIRS", 0)
     rnd = np.random.default_rng(chunk)
     for _ in range(20):
         n = int(rnd.integers(1, 30))
