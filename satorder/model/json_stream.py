@@ -98,12 +98,16 @@ class PairList:
         parts: list[str] = []
         count = 0
         first = True
-        for a, s in enumerate(self.succ):
+        rows = self.succ
+        if isinstance(rows, CsrSets) and rows.is_compact:  # keep the arrays' order
+            ptr, idx = (x.tolist() for x in rows.csr())
+            rows = [idx[s:e] for s, e in zip(ptr[:-1], ptr[1:])]
+        for a, s in enumerate(rows):
             if s:
                 qa = "[" + q[a] + ","
                 parts.append(",".join([qa + q[b] + "]" for b in s]))
                 count += len(s)
-            if count >= CHUNK_PAIRS or (a == len(self.succ) - 1 and parts):
+            if count >= CHUNK_PAIRS or (a == len(rows) - 1 and parts):
                 write(("" if first else ",").encode() + ",".join(parts).encode())
                 first = False
                 parts = []

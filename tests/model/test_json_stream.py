@@ -40,13 +40,37 @@ def test_answer_json_text_and_extra_fields():
     pairs = [(f"bay{a}", f"bay{b}") for a in range(1, 31) for b in range(a + 1, 31) if b % a == 0]
     ans = solve(Problem.from_lists(comparable=pairs))
     buf = io.BytesIO()
-    ans.write_json(buf.write, extra={"levels": [1, 2], "covering": json_stream.PairList(
+    ans.write_json(buf.write, extra={"note": [1, 2], "more_pairs": json_stream.PairList(
         ans.problem.items, [set() for _ in ans.problem.items])})
     doc = json.loads(buf.getvalue())
     plain = ans.to_json()
-    assert list(doc)[:2] == ["status", "order"] and doc["levels"] == [1, 2]
-    assert doc["covering"] == []
+    assert list(doc)[:2] == ["status", "order"] and doc["note"] == [1, 2]
+    assert doc["more_pairs"] == [] and list(doc)[-2:] == ["note", "more_pairs"]
     assert sorted(map(tuple, doc.pop("order"))) == sorted(map(tuple, plain.pop("order")))
-    doc.pop("levels"), doc.pop("covering")
+    doc.pop("note"), doc.pop("more_pairs")
     assert doc == plain
     assert buf.getvalue().endswith(b"}\n") and buf.getvalue().count(b"\n") == 1
+
+
+def test_compact_views_match_the_views_of_order_views():
+    # levels, covering pairs and sequence computed on the arrays in one compiled loop against
+    # satorder.model.order_views (sets below 20,000 pairs, numpy/scipy above)
+    from satorder.jit import HAVE_NUMBA
+    from satorder.model import order_views
+    from satorder.model.order import transitive_closure
+    from satorder.model.views_compact import compact_views
+
+    if not HAVE_NUMBA:
+        pytest.skip("the compiled views need numba")
+    rnd = np.random.default_rng(12)
+    for n, p in [(1, 0.0), (5, 0.5), (30, 0.1), (60, 0.3), (240, 0.9)]:
+        for _ in range(4):
+            arcs = [(a, b) for a in range(n) for b in range(a + 1, n) if rnd.random() < p]
+            perm = rnd.permutation(n).tolist()  # ids in no particular order
+            succ = transitive_closure(n, [(perm[a], perm[b]) for a, b in arcs])
+            names = [f"stall {i}" for i in range(n)]
+            quoted = [json.dumps(x) for x in names]
+            want = json.loads("{" + order_views.views_json(succ, quoted) + "}")
+            buf = io.BytesIO()
+            json_stream.write_document(compact_views(CsrSets.from_sets(succ), names), buf.write)
+            assert json.loads(buf.getvalue()) == want, (n, p)
