@@ -69,6 +69,9 @@ class ForcingResult:
     up: np.ndarray | None  # up[e] True: edge e oriented lo→hi
     num_classes: int  # implication classes (each counted with its reverse as one colour class)
     chain: list[ForcingStep] | None  # conflict certificate when not orientable
+    # colour[e]: the colour class of edge e (an implication class together with its reverse),
+    # when orientable; flipping whole colour classes is how other orientations are reached
+    colour: np.ndarray | None = None
 
     def arcs(self):
         """The arcs of the transitive orientation (orientable graphs only)."""
@@ -173,7 +176,8 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     lo, hi, keys, e1, e2, fl = implication_ties(adj)
     m = len(lo)
     if m == 0:
-        return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
+        return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None,
+                             np.zeros(0, dtype=np.int64))
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
     ncomp, comp = _components(m, e1, e2, fl)
     c0 = comp[0::2]
@@ -199,7 +203,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     k0 = mintail[c0]
     h0 = minhead[c0]
     up = (k0 < h0) | ((k0 == h0) & (c0 < c1))
-    return ForcingResult(n, True, lo, hi, up, ncomp // 2, None)
+    return ForcingResult(n, True, lo, hi, up, ncomp // 2, None, np.minimum(c0, c1))
 
 
 def _components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):
