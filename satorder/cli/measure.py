@@ -41,8 +41,9 @@ def add_parser(sub):
                         "for dimension 2 also a dominance drawing to FILE-dominance.svg)")
     p.add_argument("--engine", choices=ENGINES, default="auto",
                    help="engine that finds the order (see 'satorder solve --help')")
-    p.add_argument("--sat-limit", type=int, default=40, metavar="N",
-                   help="largest part (items) whose dimension ≥ 3 is settled by SAT (default 40)")
+    p.add_argument("--sat-limit", type=int, default=150, metavar="N",
+                   help="largest part (items) whose dimension ≥ 3 is settled by SAT "
+                        "(default 150)")
     p.add_argument("--time-limit", type=float, default=60.0, metavar="SECONDS",
                    help="time for finding and measuring the order; the dimension search "
                         "stops in time to report bounds (default 60)")
