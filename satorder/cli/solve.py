@@ -28,7 +28,8 @@ def add_parser(sub):
     p.add_argument("--json", action="store_true", help="print one JSON object (the contract)")
     p.add_argument("--out", metavar="FILE", help="also write the JSON answer to FILE")
     p.add_argument("--engine", choices=ENGINES, default="auto",
-                   help="forcing (plain problems), sat, both (cross-check), auto (default)")
+                   help="forcing (no open pairs, no preferences), sat, both (cross-check), "
+                        "auto (default)")
     p.add_argument("--solver", default=None, help="SAT solver name (python-sat), e.g. cadical195")
     p.add_argument("--time-limit", type=float, default=None, metavar="SECONDS",
                    help="give status unknown instead of running longer")
