@@ -115,11 +115,11 @@ def orient_with_arcs(problem: Problem, res: ForcingResult) -> ArcOrientation:
         found = placed.get(id(node))
         if not found:
             continue
-        reps = [c.representative if ids is None else ids[c.representative]
-                for c in node.children]
         if node.kind == PRIME:
-            core = ctx.prime(node, found, required, sub, ids, flip)
+            core = ctx.prime(node, found, required, ids, flip)
         elif node.kind == SERIES:
+            reps = [c.representative if ids is None else ids[c.representative]
+                    for c in node.children]
             core = ctx.series(node, found, required, reps, ids, flip)
         else:  # pragma: no cover - an arc joins adjacent items, never split at a parallel node
             raise AssertionError("an arc placed at a parallel node")
@@ -152,6 +152,8 @@ class _Context:
         n = max(problem.n, 1)
         self.n = n
         self.keys = res.lo * n + res.hi  # sorted: the forcing result's edge order
+        self.fixed = set(problem.fixed)
+        self.local: dict[int, int] | None = None  # item → id in the decomposed subgraph
 
     def edges(self, xs, ys) -> np.ndarray:
         xs = np.asarray(xs, dtype=np.int64)
@@ -167,17 +169,11 @@ class _Context:
     # ------------------------------------------------------------------ requirements
     def pair(self, a: int, b: int) -> Requirement:
         """The requirement that makes {a, b} comparable: its fixed arc if it has one."""
-        fixed = self._fixed()
-        if (a, b) in fixed:
+        if (a, b) in self.fixed:
             return Requirement(Kind.FIXED, (a, b))
-        if (b, a) in fixed:
+        if (b, a) in self.fixed:
             return Requirement(Kind.FIXED, (b, a))
         return Requirement(Kind.COMPARABLE, (a, b))
-
-    def _fixed(self) -> set[Arc]:
-        if not hasattr(self, "_fixed_set"):
-            self._fixed_set = set(self.problem.fixed)
-        return self._fixed_set
 
     def chain_requirements(self, steps: list[ForcingStep]) -> list[Requirement]:
         out = [self.pair(*s.arc) for s in steps]
@@ -185,7 +181,7 @@ class _Context:
         return out
 
     # ------------------------------------------------------------------ prime nodes
-    def prime(self, node, found, required, sub, ids, flip) -> list[Requirement] | None:
+    def prime(self, node, found, required, ids, flip) -> list[Requirement] | None:
         arcs = [(required[k][0], i, j, k) for i, j, k in found]
         agree = self.t0_before([t[0][0] for t in arcs], [t[0][1] for t in arcs])
         if agree.all():
@@ -198,12 +194,12 @@ class _Context:
         no = [t for t, ok in zip(arcs, agree) if not ok]
         best = None
         for f, g in list(zip(yes, no))[:PRIME_TRIES]:
-            core = self._prime_clash(node, f, g, required, sub, ids)
+            core = self._prime_clash(node, f, g, required, ids)
             if best is None or len(core) < len(best):
                 best = core
         return best
 
-    def _prime_clash(self, node, f, g, required, sub, ids) -> list[Requirement]:
+    def _prime_clash(self, node, f, g, required, ids) -> list[Requirement]:
         """Arc f agrees with T0 at this prime node, arc g does not: a forcing chain from f to
         the reverse of g in the graph induced by one item per child (f's and g's items kept)."""
         (a, b), ia, ib, kf = f
@@ -211,9 +207,10 @@ class _Context:
         glob = (lambda x: x) if ids is None else ids.__getitem__
         chosen: dict[int, int] = {}
         extra: list[int] = []
-        local = {} if ids is None else {v: i for i, v in enumerate(ids)}
+        if ids is not None and self.local is None:
+            self.local = {v: i for i, v in enumerate(ids)}
         for x, ix in ((a, ia), (b, ib), (c, ic), (d, id_)):
-            lx = x if ids is None else local[x]
+            lx = x if ids is None else self.local[x]
             if ix not in chosen:
                 chosen[ix] = lx
             elif chosen[ix] != lx and lx not in extra:

@@ -50,7 +50,7 @@ def _cross_check(p: Problem) -> str:
     return a.status
 
 
-@settings(max_examples=100, deadline=None)
+@settings(max_examples=80, deadline=None)
 @given(st.integers(min_value=2, max_value=8).flatmap(lambda n: st.tuples(
     st.just(n),
     st.sets(st.tuples(st.integers(0, n - 1), st.integers(0, n - 1))),
