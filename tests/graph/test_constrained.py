@@ -185,3 +185,7 @@ def test_explain_finds_a_small_core_for_a_contradicting_arc():
     e = explain(q)
     assert e.status == "infeasible" and e.verified and len(e.core) <= 6
     assert any(r.kind == Kind.FIXED for r in e.core)
+    certify.check_core_infeasible(q, e.core, minimal=True)
+    # without the contradicting arc the same problem is feasible, and explain says so
+    ok = explain(p.with_requirements(fixed=fixed))
+    assert ok.status == "feasible" and ok.verified and ok.core is None
