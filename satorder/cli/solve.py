@@ -26,7 +26,8 @@ def add_parser(sub):
     options.add_json(p)
     options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--engine", choices=ENGINES, default="auto",
-                   help="forcing (plain problems), sat, both (cross-check), auto (default)")
+                   help="forcing (no open pairs, no preferences), sat, both (cross-check), "
+                        "auto (default)")
     options.add_solver(p)
     options.add_time_limit(p, extra="status unknown when no verdict was reached")
     p.add_argument("--draw", metavar="FILE.svg", help="draw the order's Hasse diagram to FILE.svg")

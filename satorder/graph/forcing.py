@@ -84,6 +84,9 @@ class ForcingResult:
     num_classes: int  # implication classes (each counted with its reverse as one colour class)
     chain: list[ForcingStep] | None  # conflict certificate when not orientable
     succ: Any = None  # the orientation as compact successor sets (CsrSets), when computed
+    # colour[e]: the colour class of edge e (an implication class together with its reverse),
+    # when orientable; flipping whole colour classes is how other orientations are reached
+    colour: Any = None
 
     def arcs(self):
         """The arcs of the transitive orientation (orientable graphs only)."""
@@ -218,15 +221,18 @@ def implication_ties(adj: list[set[int]], unordered: list[set[int]] | None = Non
     return lo, hi, keys, e1, e2, fl
 
 
-def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
+def transitive_orientation(adj: list[set[int]], colours: bool = False) -> ForcingResult:
     """Decide whether the graph ``adj`` is a comparability graph; orient it or certify why not.
 
     ``adj[v]`` is the set of neighbours of ``v``; the graph is simple and undirected.
-    Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``.
+    Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``;
+    with ``colours``, an orientable result is given as edge arrays with the colour class of
+    every edge (``lo``, ``hi``, ``up``, ``colour``: what :mod:`satorder.graph.constrained`
+    needs to flip whole classes), at the cost of the tie arrays on large graphs.
     """
     n = len(adj)
     pairs = pair_count(adj)
-    if pairs < KERNELS_FROM:
+    if pairs < KERNELS_FROM and not colours:
         res = _orient_small(adj)
         if res is not None:
             return res
@@ -234,7 +240,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
 
     from satorder.model.adjacency import CsrSets, csr_arrays
 
-    if use_kernels(pairs):  # classes and orientation in one compiled pass, no tie arrays
+    if use_kernels(pairs) and not colours:  # classes and orientation in one compiled pass
         from satorder.graph import kernels as _kernels
 
         ok, classes, sptr, sidx = _kernels.orient_classes(*csr_arrays(adj))
@@ -244,7 +250,8 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     lo, hi, keys, e1, e2, fl = implication_ties(adj)
     m = len(lo)
     if m == 0:
-        return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
+        return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None,
+                             colour=np.zeros(0, dtype=np.int64))
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
     ncomp, comp = tie_components(m, e1, e2, fl)
     c0 = comp[0::2]
@@ -270,7 +277,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     k0 = mintail[c0]
     h0 = minhead[c0]
     up = (k0 < h0) | ((k0 == h0) & (c0 < c1))
-    return ForcingResult(n, True, lo, hi, up, ncomp // 2, None)
+    return ForcingResult(n, True, lo, hi, up, ncomp // 2, None, colour=np.minimum(c0, c1))
 
 
 def tie_components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):

@@ -12,6 +12,7 @@ import difflib
 import json
 import os
 import re
+from itertools import chain, repeat
 from typing import TYPE_CHECKING
 
 from satorder.errors import InputError
@@ -135,9 +136,10 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
         b.item(_name(name, f"items[{k}]", source), f"items[{k}]")
     if "items" in doc:  # an explicit list: every name used elsewhere must be in it
         b.close_items()
-    for a, c, where in _pairs(doc, "comparable", source):
-        b.comparable(a, c, where)
     incomp = doc.get("incomparable", "others")
+    if not (incomp == "others" and _bulk_comparable(b, doc.get("comparable"))):
+        for a, c, where in _pairs(doc, "comparable", source):
+            b.comparable(a, c, where)
     if isinstance(incomp, str):
         if incomp != "others":
             raise InputError(
@@ -182,6 +184,61 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
         for name, w in weights.items():
             b.weight(name, w, f"weights[{name!r}]")
     return b.build()
+
+
+def _bulk_comparable(b: ProblemBuilder, value) -> bool:
+    """Add a long "comparable" list at once when every entry is a pair of two different
+    non-empty strings (item ids by one dictionary pass, adjacency cut from one sorted numpy
+    array, as for edge lists); ``False`` (nothing added) otherwise, and the entries are then
+    read one by one, which names the first bad one.  Only for ``"incomparable": "others"``:
+    no pair can then be listed both ways, so the per-pair bookkeeping is not needed."""
+    if not isinstance(value, list) or len(value) < 1000:
+        return False
+    import numpy as np
+
+    if set(map(type, value)) != {list} or set(map(len, value)) != {2}:
+        return False
+    flat = list(chain.from_iterable(value))
+    if set(map(type, flat)) != {str} or not all(flat):
+        return False
+    index = b.index
+    pos = dict.fromkeys(flat)  # names in order of first appearance
+    new = [x for x in pos if x not in index] if index else list(pos)
+    if new and b.closed:
+        return False  # a name missing from "items": the slow path names it
+    ids = np.fromiter(map(index.get, flat, repeat(-1)), dtype=np.int64, count=len(flat)) \
+        if index else None
+    start = len(b.items)
+    if ids is None or (ids < 0).any():
+        fresh = dict(zip(new, range(start, start + len(new))))
+        if ids is None:
+            ids = np.fromiter(map(fresh.__getitem__, flat), dtype=np.int64, count=len(flat))
+        else:
+            miss = np.flatnonzero(ids < 0)
+            ids[miss] = [fresh[flat[i]] for i in miss.tolist()]
+    first, second = ids[0::2], ids[1::2]
+    if (first == second).any():
+        return False  # a pair naming one item twice: the slow path reports it
+    width = start + len(new)
+    keys = np.minimum(first, second) * width + np.maximum(first, second)
+    if len(np.unique(keys)) != len(keys):
+        return False  # a repeated pair: the slow path merges it and notes where
+    # every name is a non-empty string already: register the new items in one go
+    b.items.extend(new)
+    index.update(zip(new, range(start, start + len(new))))
+    b.adj.extend(set() for _ in new)
+    n = len(b.items)
+    src = np.concatenate([first, second])
+    dst = np.concatenate([second, first])
+    order = np.argsort(src, kind="stable")
+    dst_l = dst[order].tolist()
+    ends = np.cumsum(np.bincount(src, minlength=n)).tolist()
+    starts = [0] + ends[:-1]
+    adj = b.adj
+    for v, (s, e) in enumerate(zip(starts, ends)):
+        if e > s:
+            adj[v].update(dst_l[s:e])
+    return True
 
 
 # --------------------------------------------------------------------------- edge lists

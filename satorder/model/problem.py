@@ -304,6 +304,11 @@ class ProblemBuilder:
         """From now on only the items already named are items: any other name is bad input."""
         self._closed = listed_in
 
+    @property
+    def closed(self) -> bool:
+        """Whether :meth:`close_items` was called (only named items are items)."""
+        return self._closed is not None
+
     def item(self, name, where: str) -> int:
         if not isinstance(name, str) or not name:
             raise self.error(where, f"item names must be non-empty strings, got {name!r}")

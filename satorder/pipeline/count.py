@@ -45,6 +45,7 @@ from typing import Any
 
 from satorder.certify.decomposition import check_decomposition
 from satorder.errors import CertificateError, InputError
+from satorder.graph.arcs import place_arcs, required_arcs
 from satorder.graph.forcing import transitive_orientation
 from satorder.graph.modular import (
     LEAF,
@@ -191,21 +192,6 @@ def _count_by_enumeration(problem, limit, solver, time_limit, on_progress) -> Co
 
 
 # ------------------------------------------------------------------------ decomposition
-def required_arcs(problem: Problem) -> list[tuple[int, int]] | None:
-    """The arcs every answer must contain, for a problem without open pairs: fixed arcs, and
-    the reverse of each forbidden arc on a comparable pair (a comparable pair is ordered one way
-    or the other).  ``None`` if some fixed arc lies on a pair that must stay unordered."""
-    arcs = []
-    for a, b in problem.fixed:
-        if b not in problem.adj[a]:
-            return None
-        arcs.append((a, b))
-    for a, b in problem.forbidden:
-        if b in problem.adj[a]:
-            arcs.append((b, a))
-    return arcs
-
-
 def _count_by_decomposition(problem: Problem) -> CountResult:
     adj = problem.adj
     stats: dict[str, Any] = {}
@@ -224,7 +210,8 @@ def _count_by_decomposition(problem: Problem) -> CountResult:
             kinds[node.kind] += 1
     stats["nodes"] = kinds
     result = CountResult(problem, 0, True, DECOMPOSITION, stats=stats, tree=tree)
-    placed = _place_arcs(tree, arcs, problem.n)
+    placed = {key: [(i, j) for i, j, _ in found]
+              for key, found in place_arcs(tree, arcs, problem.n).items()}
     stats["constrained_nodes"] = len(placed)
     total = 1
     for node in tree.nodes():
@@ -236,36 +223,6 @@ def _count_by_decomposition(problem: Problem) -> CountResult:
             break
     result.count = total
     return result
-
-
-def _place_arcs(tree: ModuleNode, arcs, n: int) -> dict[int, list[tuple[int, int]]]:
-    """For each arc (a, b), the node where a and b separate and the indices of the children
-    holding a and b there: ``{id(node): [(child_a, child_b), ...]}``."""
-    if not arcs:
-        return {}
-    parent: dict[int, tuple[ModuleNode, int]] = {}  # id(child) → (parent, child index)
-    depth: dict[int, int] = {id(tree): 0}
-    leaf: list[ModuleNode | None] = [None] * n
-    for node in tree.nodes():
-        if node.kind == LEAF:
-            leaf[node.item] = node
-        for i, c in enumerate(node.children):
-            parent[id(c)] = (node, i)
-            depth[id(c)] = depth[id(node)] + 1
-    out: dict[int, list[tuple[int, int]]] = {}
-    for a, b in arcs:
-        x, y = leaf[a], leaf[b]
-        ix = iy = -1
-        while depth[id(x)] > depth[id(y)]:
-            x, ix = parent[id(x)]
-        while depth[id(y)] > depth[id(x)]:
-            y, iy = parent[id(y)]
-        while x is not y:
-            x, ix = parent[id(x)]
-            y, iy = parent[id(y)]
-        # x is the lowest common ancestor; ix, iy the children on the way up from a and b
-        out.setdefault(id(x), []).append((ix, iy))
-    return out
 
 
 def _series_count(k: int, arcs) -> int:
@@ -306,8 +263,6 @@ def _linear_extensions(before: list[int]) -> int:
 def _prime_count(adj, node: ModuleNode, arcs) -> int:
     """How many of the two transitive orientations of a prime node's quotient put each arc
     (i, j) (children indices) as i before j."""
-    from satorder.graph.forcing import transitive_orientation
-
     if not arcs:
         return 2
     q = quotient(adj, node)
