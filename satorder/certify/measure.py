@@ -21,7 +21,8 @@ Every check raises :class:`~satorder.errors.CertificateError` naming what is wro
   incomparability graph is not a comparability graph (brute force over its linear extensions
   when small, else a Γ forcing chain checked by :func:`satorder.certify.chain.check_forcing_chain`);
   ≥ d ≥ 4 by re-solving "d − 1 orders realize the sub-order" with an encoding and SAT solver
-  of this module's own.
+  of this module's own, or by d incomparable pairs that pairwise form alternating cycles of
+  length two (:func:`check_two_cycle_pairs`).
 """
 
 from __future__ import annotations
@@ -253,12 +254,40 @@ def _two_dimensional_brute(sub) -> bool:
     return False
 
 
+def _two_cycle_clique(sub) -> list[tuple[int, int]]:
+    """Ordered incomparable pairs ``(a, b)`` that pairwise form alternating two-cycles
+    (``a ≤ d`` and ``c ≤ b`` for any two ``(a, b)``, ``(c, d)``), grown greedily: no linear
+    extension puts ``b`` before ``a`` for two of them (see :func:`check_two_cycle_pairs`)."""
+    n = len(sub)
+    le = np.eye(n, dtype=bool)
+    for a, s in enumerate(sub):
+        le[a, list(s)] = True
+    a, b = np.nonzero(~(le | le.T))
+    if not len(a):
+        return []
+    m = le[np.ix_(a, b)]
+    conflict = m & m.T
+    cand = np.arange(len(a))
+    clique = []
+    while len(cand):
+        best = int(cand[int(np.argmax(conflict[np.ix_(cand, cand)].sum(axis=1)))])
+        clique.append((int(a[best]), int(b[best])))
+        cand = cand[conflict[best, cand]]
+    return clique
+
+
 def _realizable(sub, k) -> bool:
     """Do ``k`` linear orders realize ``sub``?  Encoding over ordered pairs (both directions
-    as variables, exactly one true), transitivity over ordered triples; Glucose 4."""
+    as variables, exactly one true), transitivity over ordered triples; Glucose 4.  Symmetry
+    is broken by a clique of pairwise two-cycles: its pairs need distinct orders, so the i-th
+    pair may be taken to be reversed in the i-th order (and more pairs than orders settle it).
+    """
     from pysat.solvers import Solver
 
     n = len(sub)
+    clique = _two_cycle_clique(sub)
+    if len(clique) > k:
+        return False
     ids = {}
     for i in range(k):
         for x in range(n):
@@ -281,6 +310,8 @@ def _realizable(sub, k) -> bool:
                 cl.extend([ids[i, x, y]] for i in range(k))
             elif x not in sub[y]:
                 cl.append([ids[i, x, y] for i in range(k)])
+    for i, (x, y) in enumerate(clique):
+        cl.append([ids[i, y, x]])
     with Solver(name="glucose4", bootstrap_with=cl) as s:
         return s.solve()
 
@@ -324,6 +355,27 @@ def check_dimension_at_least(succ, items, bound, chain=None) -> None:
         raise CertificateError(f"{bound - 1} orders realize the witness: dimension < {bound}")
 
 
+def check_two_cycle_pairs(succ, pairs) -> None:
+    """Dimension ≥ ``len(pairs)``: each ``(a, b)`` is an incomparable pair, and any two of them
+    ``(a, b)``, ``(c, d)`` have ``a ≤ d`` and ``c ≤ b``.  A realizer puts ``b`` before ``a`` in
+    some order for every pair; one linear extension doing so for two of them would have
+    ``b < a ≤ d < c ≤ b``.  So the pairs need distinct orders (the argument behind the standard
+    example's dimension, Dushnik & Miller 1941; alternating cycles, Trotter 1992, from memory).
+    """
+    def le(x, y):
+        return x == y or y in succ[x]
+
+    n = len(succ)
+    for a, b in pairs:
+        if not (0 <= a < n and 0 <= b < n) or a == b or le(a, b) or le(b, a):
+            raise CertificateError(f"witness pair {a}, {b} is not an incomparable pair")
+    for i, (a, b) in enumerate(pairs):
+        for c, d in pairs[i + 1:]:
+            if not (le(a, d) and le(c, b)):
+                raise CertificateError(f"witness pairs ({a}, {b}) and ({c}, {d}) can be "
+                                       "reversed together")
+
+
 def check_dimension(succ, dim) -> None:
     """A :class:`satorder.measure.dimension.Dimension`: realizer (upper bound, when given) and
     witness
@@ -338,7 +390,10 @@ def check_dimension(succ, dim) -> None:
         if len(dim.realizer) != dim.upper:
             raise CertificateError("realizer size differs from the upper bound")
         check_realizer(succ, dim.realizer)
-    if dim.lower >= 3:
+    pairs = getattr(dim, "witness_pairs", None)
+    if dim.lower >= 3 and pairs is not None and len(pairs) >= dim.lower:
+        check_two_cycle_pairs(succ, [tuple(p) for p in pairs])
+    elif dim.lower >= 3:
         if dim.witness is None or (dim.witness_lower or 0) < dim.lower:
             raise CertificateError(f"dimension ≥ {dim.lower} claimed without a witness")
         check_dimension_at_least(succ, dim.witness, dim.lower, dim.witness_chain)

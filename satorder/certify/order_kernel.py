@@ -39,3 +39,33 @@ def _intransitive_kernel(indptr, indices):  # pragma: no cover - compiled
                 if mark[c] != a:
                     return a, b, c
     return -1, -1, -1
+
+
+def first_intransitive_arrays(indptr, indices):
+    """:func:`first_intransitive` on an order already held as CSR arrays."""
+    a, b, c = run(_intransitive_kernel, indptr, indices)
+    return None if a < 0 else (int(a), int(b), int(c))
+
+
+def first_outside(sptr, sidx, aptr, aidx) -> tuple[int, int, int]:
+    """First ``(a, b, kind)`` with ``b`` listed above ``a`` but not a comparable pair of ``a``
+    (kind 0), or listed twice above ``a`` (kind 1); ``(-1, -1, -1)`` if none."""
+    a, b, kind = run(_outside_kernel, sptr, sidx, aptr, aidx)
+    return int(a), int(b), int(kind)
+
+
+def _outside_kernel(sptr, sidx, aptr, aidx):  # pragma: no cover - compiled
+    n = len(aptr) - 1
+    comparable = np.full(n, -1, dtype=np.int64)
+    listed = np.full(n, -1, dtype=np.int64)
+    for a in range(n):
+        for t in range(aptr[a], aptr[a + 1]):
+            comparable[aidx[t]] = a
+        for t in range(sptr[a], sptr[a + 1]):
+            b = sidx[t]
+            if comparable[b] != a:
+                return a, b, 0
+            if listed[b] == a:
+                return a, b, 1
+            listed[b] = a
+    return -1, -1, -1

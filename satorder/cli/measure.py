@@ -39,8 +39,9 @@ def add_parser(sub):
                         "for dimension 2 also a dominance drawing to FILE-dominance.svg)")
     p.add_argument("--engine", choices=ENGINES, default="auto",
                    help="engine that finds the order (see 'satorder solve --help')")
-    p.add_argument("--sat-limit", type=int, default=40, metavar="N",
-                   help="largest part (items) whose dimension ≥ 3 is settled by SAT (default 40)")
+    p.add_argument("--sat-limit", type=int, default=150, metavar="N",
+                   help="largest part (items) whose dimension ≥ 3 is settled by SAT "
+                        "(default 150)")
     options.add_time_limit(p, default=60.0, extra="covers finding and measuring the order; "
                            "the dimension search stops in time to report bounds")
     options.add_solver(p, "for finding the order")

@@ -15,7 +15,7 @@ from satorder.cli.common import (
     write_pictures,
     write_report,
 )
-from satorder.io.files import atomic_write
+from satorder.io.files import atomic_binary
 from satorder.model.requirement import INFEASIBLE, UNKNOWN
 from satorder.pipeline.solve import ENGINES, solve
 
@@ -26,7 +26,8 @@ def add_parser(sub):
     options.add_json(p)
     options.add_out(p, "the JSON object --json prints, besides the usual output")
     p.add_argument("--engine", choices=ENGINES, default="auto",
-                   help="forcing (plain problems), sat, both (cross-check), auto (default)")
+                   help="forcing (no open pairs, no preferences), sat, both (cross-check), "
+                        "auto (default)")
     options.add_solver(p)
     options.add_time_limit(p, extra="status unknown when no verdict was reached")
     p.add_argument("--draw", metavar="FILE.svg", help="draw the order's Hasse diagram to FILE.svg")
@@ -40,9 +41,11 @@ def run(args) -> int:
     check_report_path(args.report, args.file)
     problem = load(args.file)
     ans = solve(problem, engine=args.engine, solver=args.solver, time_limit=args.time_limit)
-    text = ans.to_json_text() if (args.json or args.out) else None
-    if args.out:
-        atomic_write(args.out, text)
+    if args.out:  # streamed: the answer's JSON is never held in memory whole
+        with atomic_binary(args.out) as f:
+            ans.write_json(f.write)
+    if args.json:  # the answer as found (before a minimal core is sought for the summary)
+        _print_json(ans, args.out)
     if args.draw and ans.feasible:
         left = 10.0 if end is None else min(10.0, max(0.0, end - time.monotonic()))
         write_pictures(args.draw, args.file, ans.succ, problem.items, weights=problem.weights,
@@ -59,10 +62,7 @@ def run(args) -> int:
         from satorder.render.report_pages import solve_report
 
         write_report(args.report, solve_report(problem, ans, command_line(args)))
-    if args.json:
-        sys.stdout.write(text)
-        sys.stdout.flush()
-    else:
+    if not args.json:
         from satorder.render.answer_text import print_answer
 
         admitted = _admitted(problem, args.file) if ans.feasible else None
@@ -86,3 +86,18 @@ def _admitted(problem, file: str) -> str:
                "checked)."
     return (f"The {hard} admit {res.count:,} orders; this is one of them (counted by modular "
             f"decomposition, checked; satorder orders {file} lists them).")
+
+
+def _print_json(ans, written: str | None) -> None:
+    """The JSON answer on standard output: a copy of the file just written, or streamed."""
+    sys.stdout.flush()
+    binary = getattr(sys.stdout, "buffer", None)
+    write = binary.write if binary is not None else (
+        lambda data: sys.stdout.write(data.decode("utf-8")))
+    if written:
+        with open(written, "rb") as f:
+            for block in iter(lambda: f.read(1 << 20), b""):
+                write(block)
+    else:
+        ans.write_json(write)
+    (binary or sys.stdout).flush()

@@ -34,7 +34,7 @@ all-triples encoding with another solver), its minimality by one witness order p
 from __future__ import annotations
 
 import time
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Any
 
 from satorder import certify
@@ -56,6 +56,7 @@ from satorder.explanation.repairs import (
     repair_text,
 )
 from satorder.explanation.requirements import requirements
+from satorder.graph.constrained import orient_with_arcs
 from satorder.graph.forcing import ForcingResult, transitive_orientation
 from satorder.graph.obstruction import (
     chain_items,
@@ -297,7 +298,7 @@ def explain(
         core = list(clash[0])
     elif problem.incomparable is None:
         say("forcing")
-        res = forcing_result or transitive_orientation(problem.adj)
+        res = forcing_result or transitive_orientation(problem.adj, colours=not problem.is_plain)
         stats["forcing_seconds"] = round(time.perf_counter() - t0, 6)
         if not res.orientable:
             say("obstruction")
@@ -319,6 +320,18 @@ def explain(
             expl.status, expl.verified = FEASIBLE, True
             stats["seconds"] = round(time.perf_counter() - t0, 6)
             return expl
+        elif problem.n > ORACLE_ITEMS:
+            # fixed or forbidden arcs, every other pair unordered: decided on the modular
+            # decomposition from the same forcing result (no second run of the engine)
+            say("arcs on the decomposition")
+            out = orient_with_arcs(problem, res)
+            if out.feasible:
+                certify.check_order(problem, replace(res, up=out.up).successor_sets())
+                expl.status, expl.verified = FEASIBLE, True
+                stats["seconds"] = round(time.perf_counter() - t0, 6)
+                return expl
+            with core_oracle(out.core) as oracle:
+                core = [out.core[k] for k in minimal_core(oracle, range(len(out.core)))]
 
     if core is None:
         say("core")

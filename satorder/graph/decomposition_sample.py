@@ -2,7 +2,7 @@
 decomposition.
 
 The answers are independent choices at the nodes of the decomposition with the arcs placed
-where their ends separate (:mod:`satorder.graph.constrained`), each node's admissible choices
+where their ends separate (:mod:`satorder.graph.node_choices`), each node's admissible choices
 counted alike in every combination.  Drawing each node's choice uniformly among its own
 admissible ones therefore draws the whole answer uniformly:
 
@@ -19,7 +19,7 @@ before all of the other's, which is the transitive orientation the choices descr
 
 >>> import random
 >>> from satorder.model.problem import Problem
->>> from satorder.graph.constrained import constrain
+>>> from satorder.graph.node_choices import constrain
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")], fixed=[("a", "b")])
 >>> succ = sample_order(constrain(p), random.Random(1))
 >>> 1 in succ[0]                        # a before b in every answer
@@ -30,8 +30,8 @@ from __future__ import annotations
 
 import random
 
-from satorder.graph.constrained import Constrained, NodeChoices
 from satorder.graph.modular import SERIES
+from satorder.graph.node_choices import Constrained, NodeChoices
 
 
 def sample_order(con: Constrained, rng: random.Random) -> list[set[int]]:

@@ -43,7 +43,6 @@ How it is computed here (near-linear work in practice):
 from __future__ import annotations
 
 from dataclasses import dataclass
-from itertools import chain
 from typing import TYPE_CHECKING, Any
 
 from satorder.jit import HAVE_NUMBA
@@ -84,18 +83,38 @@ class ForcingResult:
     up: Any  # up[e] True: edge e oriented lo→hi; None when not orientable
     num_classes: int  # implication classes (each counted with its reverse as one colour class)
     chain: list[ForcingStep] | None  # conflict certificate when not orientable
+    succ: Any = None  # the orientation as compact successor sets (CsrSets), when computed
+    # colour[e]: the colour class of edge e (an implication class together with its reverse),
+    # when orientable; flipping whole colour classes is how other orientations are reached
+    colour: Any = None
 
     def arcs(self):
         """The arcs of the transitive orientation (orientable graphs only)."""
-        assert self.up is not None
+        assert self.orientable
+        if self.succ is not None and getattr(self.succ, "is_compact", False):
+            import numpy as np  # compact result: the arcs are the successor rows
+
+            ptr, idx = self.succ.csr()
+            tails = np.repeat(np.arange(self.n), np.diff(ptr)).tolist()
+            yield from zip(tails, idx.tolist())
+            return
+        if self.succ is not None:
+            for a, above in enumerate(self.succ):
+                for b in above:
+                    yield (a, b)
+            return
         lo, hi, up = (x.tolist() if hasattr(x, "tolist") else x
                       for x in (self.lo, self.hi, self.up))
         for a, b, u in zip(lo, hi, up):
             yield (a, b) if u else (b, a)
 
-    def successor_sets(self) -> list[set[int]]:
-        """The orientation as successor sets (a transitive orientation is its own closure)."""
-        assert self.up is not None
+    def successor_sets(self):
+        """The orientation as successor sets (a transitive orientation is its own closure): a
+        list of sets on small graphs, else a compact
+        :class:`~satorder.model.adjacency.CsrSets` that acts as one."""
+        assert self.orientable
+        if self.succ is not None:
+            return self.succ
         if isinstance(self.up, list):
             succ: list[set[int]] = [set() for _ in range(self.n)]
             for a, b in self.arcs():
@@ -103,13 +122,19 @@ class ForcingResult:
             return succ
         import numpy as np
 
+        from satorder.model.adjacency import CsrSets
+
         tails = np.where(self.up, self.lo, self.hi)
         heads = np.where(self.up, self.hi, self.lo)
-        order = np.argsort(tails, kind="stable")
-        heads_l = heads[order].tolist()
-        ends = np.cumsum(np.bincount(tails, minlength=self.n)).tolist()
-        starts = [0] + ends[:-1]
-        return [set(heads_l[s:e]) for s, e in zip(starts, ends)]
+        self.succ = CsrSets.from_arcs(self.n, tails, heads)
+        return self.succ
+
+
+def pair_count(adj) -> int:
+    """Number of edges of ``adj`` without turning compact adjacency into sets."""
+    if getattr(adj, "is_compact", False):
+        return adj.total() // 2
+    return sum(map(len, adj)) // 2
 
 
 def _edge_arrays(adj: list[set[int]]):
@@ -117,13 +142,14 @@ def _edge_arrays(adj: list[set[int]]):
     the rank of its key, found with ``searchsorted``: no per-pair dictionary)."""
     import numpy as np
 
-    n = len(adj)
-    deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
-    src = np.repeat(np.arange(n, dtype=np.int64), deg)
-    dst = np.fromiter(chain.from_iterable(adj), dtype=np.int64, count=int(deg.sum()))
+    from satorder.model.adjacency import csr_arrays
+
+    indptr, indices = csr_arrays(adj)
+    n = len(indptr) - 1
+    src = np.repeat(np.arange(n, dtype=np.int64), np.diff(indptr))
+    dst = indices.astype(np.int64)
     keep = src < dst
-    key = src[keep] * n + dst[keep]
-    key.sort()
+    key = src[keep] * n + dst[keep]  # rows are sorted, so the keys are too
     return key // n, key % n, key
 
 
@@ -165,7 +191,7 @@ def gamma_steps(adj: list[set[int]], unordered: list[set[int]] | None = None,
     import numpy as np
 
     if compiled is None:
-        compiled = use_kernels(sum(map(len, adj)) // 2)
+        compiled = use_kernels(pair_count(adj))
     if compiled:
         from satorder.graph import kernels as _kernels
 
@@ -195,23 +221,37 @@ def implication_ties(adj: list[set[int]], unordered: list[set[int]] | None = Non
     return lo, hi, keys, e1, e2, fl
 
 
-def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
+def transitive_orientation(adj: list[set[int]], colours: bool = False) -> ForcingResult:
     """Decide whether the graph ``adj`` is a comparability graph; orient it or certify why not.
 
     ``adj[v]`` is the set of neighbours of ``v``; the graph is simple and undirected.
-    Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``.
+    Returns a :class:`ForcingResult` with the orientation (``up``) or a forcing ``chain``;
+    with ``colours``, an orientable result is given as edge arrays with the colour class of
+    every edge (``lo``, ``hi``, ``up``, ``colour``: what :mod:`satorder.graph.constrained`
+    needs to flip whole classes), at the cost of the tie arrays on large graphs.
     """
-    if sum(map(len, adj)) // 2 < KERNELS_FROM:
+    n = len(adj)
+    pairs = pair_count(adj)
+    if pairs < KERNELS_FROM and not colours:
         res = _orient_small(adj)
         if res is not None:
             return res
     import numpy as np
 
-    n = len(adj)
+    from satorder.model.adjacency import CsrSets, csr_arrays
+
+    if use_kernels(pairs) and not colours:  # classes and orientation in one compiled pass
+        from satorder.graph import kernels as _kernels
+
+        ok, classes, sptr, sidx = _kernels.orient_classes(*csr_arrays(adj))
+        if ok:
+            return ForcingResult(n, True, None, None, None, classes, None, CsrSets(sptr, sidx))
+        del sptr, sidx  # not orientable: the tie arrays below give the chain
     lo, hi, keys, e1, e2, fl = implication_ties(adj)
     m = len(lo)
     if m == 0:
-        return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None)
+        return ForcingResult(n, True, lo, hi, np.zeros(0, dtype=bool), 0, None,
+                             colour=np.zeros(0, dtype=np.int64))
     # node 2e+0: edge e oriented lo→hi; node 2e+1: hi→lo
     ncomp, comp = tie_components(m, e1, e2, fl)
     c0 = comp[0::2]
@@ -220,7 +260,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     if len(bad):
         # short certificates: try the conflicting edges whose ends have the fewest neighbours
         # (a planted odd hole's own edges rather than the big class it may be joined to)
-        deg = np.fromiter((len(s) for s in adj), dtype=np.int64, count=n)
+        deg = np.diff(csr_arrays(adj)[0])
         picks = bad[np.argsort(deg[lo[bad]] + deg[hi[bad]], kind="stable")[:CHAIN_TRIES]]
         graph = tie_graph(m, e1, e2, fl)
         chain = min((_conflict_chain(adj, graph, int(e), lo, hi) for e in picks),
@@ -237,7 +277,7 @@ def transitive_orientation(adj: list[set[int]]) -> ForcingResult:
     k0 = mintail[c0]
     h0 = minhead[c0]
     up = (k0 < h0) | ((k0 == h0) & (c0 < c1))
-    return ForcingResult(n, True, lo, hi, up, ncomp // 2, None)
+    return ForcingResult(n, True, lo, hi, up, ncomp // 2, None, colour=np.minimum(c0, c1))
 
 
 def tie_components(m: int, e1: np.ndarray, e2: np.ndarray, fl: np.ndarray):

@@ -2,7 +2,7 @@
 
 The *share* of ``a`` before ``b`` is the fraction of all answers in which ``a`` comes before
 ``b``.  Without open pairs the answers are independent choices at the nodes of the modular
-decomposition with the arcs placed where their ends separate (:mod:`satorder.graph.constrained`),
+decomposition with the arcs placed where their ends separate (:mod:`satorder.graph.node_choices`),
 and the relation of two comparable items ``a, b`` is decided at their lowest common ancestor
 ``X`` alone: ``a`` is before ``b`` exactly when the child of ``X`` holding ``a`` comes before the
 child holding ``b``.  Every pair between the same two children of ``X`` has the same share, so
@@ -29,7 +29,7 @@ Comparable pairs are always ordered, so every share of "neither" is 0 here.  Sha
 fractions (:class:`fractions.Fraction`); a pair is *settled* when its share is 0 or 1.
 
 >>> from satorder.model.problem import Problem
->>> from satorder.graph.constrained import constrain
+>>> from satorder.graph.node_choices import constrain
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")], fixed=[("a", "b")])
 >>> sorted((p.names(b.left), p.names(b.right), str(b.before)) for b in shares(constrain(p)))
 [(['a'], ['b'], '1'), (['a'], ['c'], '2/3'), (['c'], ['b'], '2/3')]
@@ -41,8 +41,8 @@ from collections.abc import Iterator
 from dataclasses import dataclass
 from fractions import Fraction
 
-from satorder.graph.constrained import Constrained, NodeChoices
 from satorder.graph.modular import SERIES
+from satorder.graph.node_choices import Constrained, NodeChoices
 
 HALF = Fraction(1, 2)
 

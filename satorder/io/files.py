@@ -18,16 +18,17 @@ def atomic_write(path: str, text: str) -> None:
 
 
 @contextmanager
-def atomic_file(path: str):
-    """A text file to write ``path`` piece by piece (``satorder orders --out``): it is a
-    temporary file in the same folder, renamed over ``path`` when the block ends normally and
-    deleted when it raises."""
+def atomic_file(path: str, binary: bool = False):
+    """A text file (or with ``binary``, a binary one) to write ``path`` piece by piece
+    (``satorder orders --out``, the streamed JSON of ``solve --out``): it is a temporary file in
+    the same folder, renamed over ``path`` when the block ends normally and deleted when it
+    raises."""
     folder = os.path.dirname(os.path.abspath(path)) or "."
     if not os.path.isdir(folder):
         raise InputError(f"{path}: folder {folder} does not exist; create it or choose another")
     fd, tmp = tempfile.mkstemp(prefix=".satorder-", suffix=".tmp", dir=folder)
     try:
-        with os.fdopen(fd, "w", encoding="utf-8") as f:
+        with (os.fdopen(fd, "wb") if binary else os.fdopen(fd, "w", encoding="utf-8")) as f:
             yield f
         try:  # keep the mode of the file replaced, else the usual umask-based mode
             mode = os.stat(path).st_mode & 0o7777
@@ -43,3 +44,8 @@ def atomic_file(path: str):
         except OSError:
             pass
         raise
+
+
+def atomic_binary(path: str):
+    """:func:`atomic_file` opened for bytes."""
+    return atomic_file(path, binary=True)

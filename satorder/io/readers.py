@@ -11,12 +11,16 @@ from __future__ import annotations
 import difflib
 import json
 import os
+import re
+from itertools import chain, repeat
 from typing import TYPE_CHECKING
 
 from satorder.errors import InputError
+from satorder.jit import HAVE_NUMBA
 from satorder.model.problem import Problem, ProblemBuilder
 
 MAX_BYTES = 1 << 30  # 1 GiB: beyond this a file is refused rather than exhausting memory
+SCAN_BYTES = 1 << 20  # edge lists from 1 MiB up go to the compiled scanner (numba loads)
 JSON_KEYS = ("items", "comparable", "incomparable", "fixed", "forbidden", "prefer", "weights",
              "version", "comment")
 PREFER_KEYS = ("before", "after", "weight")
@@ -29,16 +33,23 @@ if TYPE_CHECKING:
 def read_problem(path: str | os.PathLike) -> Problem:
     """Read a problem file, choosing the format by extension or content."""
     path = os.fspath(path)
-    text = _read_text(path)
+    data = _read_bytes(path)
     ext = os.path.splitext(path)[1].lower()
-    if ext == ".json" or text.lstrip().startswith("{"):
-        return parse_json(text, path)
+    head = data[:256].lstrip()
+    if ext == ".json" or head.startswith(b"{") or (
+        not head.isascii() and head.decode("utf-8", "ignore").lstrip().startswith("{")
+    ):
+        return parse_json(_decode(data, path), path)
     if ext in (".g6", ".graph6"):
-        return parse_graph6(text, path)
-    return parse_edge_list(text, path)
+        return parse_graph6(_decode(data, path), path)
+    scanned = _scan_edge_list(data, path)
+    del data  # the file's bytes go before the adjacency arrays are built
+    if isinstance(scanned, Problem):
+        return scanned
+    return _compact(scanned, lambda: _decode(_read_bytes(path), path))
 
 
-def _read_text(path: str) -> str:
+def _read_bytes(path: str) -> bytes:
     try:
         size = os.path.getsize(path)
         if size > MAX_BYTES:
@@ -56,10 +67,14 @@ def _read_text(path: str) -> str:
         raise InputError(f"{path}: permission denied; check the file's permissions") from None
     except OSError as exc:
         raise InputError(f"{path}: cannot read ({exc.strerror}); check the file") from None
-    if not data.strip():
+    if not data or data.isspace():  # (no stripped copy of a large file)
         raise InputError(f"{path}: file is empty; give at least one pair or item")
     if b"\x00" in data[:8192]:
         raise InputError(f"{path}: looks like a binary file; give a JSON problem or an edge list")
+    return data
+
+
+def _decode(data: bytes, path: str) -> str:
     try:
         return data.decode("utf-8")
     except UnicodeDecodeError as exc:
@@ -121,9 +136,10 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
         b.item(_name(name, f"items[{k}]", source), f"items[{k}]")
     if "items" in doc:  # an explicit list: every name used elsewhere must be in it
         b.close_items()
-    for a, c, where in _pairs(doc, "comparable", source):
-        b.comparable(a, c, where)
     incomp = doc.get("incomparable", "others")
+    if not (incomp == "others" and _bulk_comparable(b, doc.get("comparable"))):
+        for a, c, where in _pairs(doc, "comparable", source):
+            b.comparable(a, c, where)
     if isinstance(incomp, str):
         if incomp != "others":
             raise InputError(
@@ -170,14 +186,120 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
     return b.build()
 
 
+def _bulk_comparable(b: ProblemBuilder, value) -> bool:
+    """Add a long "comparable" list at once when every entry is a pair of two different
+    non-empty strings (item ids by one dictionary pass, adjacency cut from one sorted numpy
+    array, as for edge lists); ``False`` (nothing added) otherwise, and the entries are then
+    read one by one, which names the first bad one.  Only for ``"incomparable": "others"``:
+    no pair can then be listed both ways, so the per-pair bookkeeping is not needed."""
+    if not isinstance(value, list) or len(value) < 1000:
+        return False
+    import numpy as np
+
+    if set(map(type, value)) != {list} or set(map(len, value)) != {2}:
+        return False
+    flat = list(chain.from_iterable(value))
+    if set(map(type, flat)) != {str} or not all(flat):
+        return False
+    index = b.index
+    pos = dict.fromkeys(flat)  # names in order of first appearance
+    new = [x for x in pos if x not in index] if index else list(pos)
+    if new and b.closed:
+        return False  # a name missing from "items": the slow path names it
+    ids = np.fromiter(map(index.get, flat, repeat(-1)), dtype=np.int64, count=len(flat)) \
+        if index else None
+    start = len(b.items)
+    if ids is None or (ids < 0).any():
+        fresh = dict(zip(new, range(start, start + len(new))))
+        if ids is None:
+            ids = np.fromiter(map(fresh.__getitem__, flat), dtype=np.int64, count=len(flat))
+        else:
+            miss = np.flatnonzero(ids < 0)
+            ids[miss] = [fresh[flat[i]] for i in miss.tolist()]
+    first, second = ids[0::2], ids[1::2]
+    if (first == second).any():
+        return False  # a pair naming one item twice: the slow path reports it
+    width = start + len(new)
+    keys = np.minimum(first, second) * width + np.maximum(first, second)
+    if len(np.unique(keys)) != len(keys):
+        return False  # a repeated pair: the slow path merges it and notes where
+    # every name is a non-empty string already: register the new items in one go
+    b.items.extend(new)
+    index.update(zip(new, range(start, start + len(new))))
+    b.adj.extend(set() for _ in new)
+    n = len(b.items)
+    src = np.concatenate([first, second])
+    dst = np.concatenate([second, first])
+    order = np.argsort(src, kind="stable")
+    dst_l = dst[order].tolist()
+    ends = np.cumsum(np.bincount(src, minlength=n)).tolist()
+    starts = [0] + ends[:-1]
+    adj = b.adj
+    for v, (s, e) in enumerate(zip(starts, ends)):
+        if e > s:
+            adj[v].update(dst_l[s:e])
+    return True
+
+
 # --------------------------------------------------------------------------- edge lists
 def parse_edge_list(text: str, source: str = "<edges>") -> Problem:
     """Parse ``a b`` lines (``#`` starts a comment) into a plain problem.
 
-    A line with one or three fields is an error (typos never pass silently).  Built for speed
-    at millions of lines: a single regular-expression scan rejects malformed lines, one
-    ``str.split`` tokenises the whole text, item ids come from a dictionary built in C
-    (``dict.fromkeys``), and adjacency sets are cut from one sorted numpy array.
+    A line with one or three fields is an error (typos never pass silently).  Item ids follow
+    the order in which names first appear.  With numba the bytes are scanned by compiled loops
+    into compact adjacency arrays (:mod:`satorder.io.edge_scan`); otherwise, and for text
+    with non-ASCII white space or under :data:`SCAN_BYTES` (where loading the compiler would
+    cost more than it saves), :func:`parse_edge_list_text` reads it.
+    """
+    scanned = _scan_edge_list(text.encode("utf-8"), source, text)
+    return scanned if isinstance(scanned, Problem) else _compact(scanned, lambda: text)
+
+
+def _compact(scanned, text_again) -> Problem:
+    """The problem from the compiled scanner's ``(items, ids, source)``, with the note on
+    repeated pairs the text reader gives (``text_again()`` re-reads the text, only then)."""
+    from satorder.io.edge_scan import compact_problem
+
+    items, ids, source = scanned
+    p = compact_problem(items, ids, source)
+    repeats = len(ids) // 2 - p.num_comparable
+    if repeats:
+        text = text_again()
+        if "#" in text:
+            text = "\n".join(ln.split("#", 1)[0] for ln in text.split("\n"))
+        a, b = ids[0::2].astype("int64"), ids[1::2].astype("int64")
+        p.notes.append(_repeat_note(text, a, b, len(items), repeats, source))
+    return p
+
+
+def _scan_edge_list(data: bytes, source: str, text: str | None = None):
+    """A problem (text reader), or ``(items, ids, source)`` from the compiled scanner."""
+    if not data.isascii():
+        if text is None:
+            text = _decode(data, source)
+        if _UNICODE_SPACE.search(text):
+            return parse_edge_list_text(text, source)
+    if not HAVE_NUMBA or len(data) < SCAN_BYTES:
+        return parse_edge_list_text(data.decode("utf-8") if text is None else text, source)
+    from satorder.io.edge_scan import scan_tokens
+
+    items, ids = scan_tokens(data, source)
+    return items, ids, source
+
+
+# white space that str.split splits on beyond ASCII (computed, so it follows Python's tables)
+_UNICODE_SPACE = re.compile(
+    "[" + "".join(chr(c) for c in range(128, 0x3001) if chr(c).isspace()) + "]"
+)
+
+
+def parse_edge_list_text(text: str, source: str = "<edges>") -> Problem:
+    """The pure-Python edge-list reader (the twin of :mod:`satorder.io.edge_scan`).
+
+    Built for speed at millions of lines without compiled code: one ``str.split`` tokenises
+    the whole text, field counts are checked on the raw bytes with numpy, item ids come from a
+    dictionary built in C (``dict.fromkeys``), and adjacency sets are cut from one sorted
+    numpy array.
     """
     if "#" in text:
         text = "\n".join(ln.split("#", 1)[0] for ln in text.split("\n"))

@@ -88,7 +88,7 @@ class Measures:
 
 
 def measure(succ, weights: dict[int, int] | None = None,
-            sat_limit: int = 40, time_limit: float | None = 60.0, progress=None,
+            sat_limit: int = 150, time_limit: float | None = 60.0, progress=None,
             verify: bool = True) -> Measures:
     """Height, width, partitions, Hasse diagram, a linear extension and the dimension of an
     order (plus weighted chain and antichain when ``weights`` is given; missing items weigh 1).

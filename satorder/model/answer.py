@@ -82,31 +82,53 @@ class Answer:
         return g
 
     def to_json_text(self) -> str:
-        """The JSON document as one line of text; the (possibly huge) ``order`` list is written
-        directly from the successor sets instead of through millions of small lists, and so
-        are the ``levels``, ``covering`` and ``sequence`` views
-        (:func:`satorder.model.order_views.views_json`)."""
-        import json
+        """The JSON document as one line of text (see :meth:`write_json`)."""
+        import io
+
+        buf = io.BytesIO()
+        self.write_json(buf.write)
+        return buf.getvalue().decode("utf-8")
+
+    def write_json(self, write, extra: dict[str, Any] | None = None) -> None:
+        """Write the JSON document with ``write`` (a function taking bytes, e.g. a binary
+        file's ``write``) in chunks: the (possibly huge) ``order`` list is streamed from the
+        successor sets, never built in memory.  ``extra`` fields are added at the end; a value
+        with a ``write_json(write)`` method is streamed by it
+        (:func:`satorder.model.json_stream.write_document`)."""
+        from satorder.model.json_stream import Members, PairList, write_document
 
         doc = self.to_json(include_order=False)
-        if self.succ is None:
-            return json.dumps(doc, separators=(",", ":")) + "\n"
-        q = [json.dumps(name) for name in self.problem.items]
-        parts = []
-        for a, s in enumerate(self.succ):
-            if s:
-                qa = "[" + q[a] + ","
-                parts.append(",".join([qa + q[b] + "]" for b in s]))
-        head = json.dumps({"status": doc.pop("status")}, separators=(",", ":"))[:-1]
-        rest = json.dumps(doc, separators=(",", ":"))[1:]
-        # --- views of the order (levels, covering, sequence): see satorder.model.order_views
-        views = order_views.views_json(self.succ, q)
-        return "".join((head, ',"order":[', ",".join(parts), "],", views, ",", rest, "\n"))
+        out: dict[str, Any] = {"status": doc.pop("status")}
+        if self.succ is not None:
+            names = self.problem.items
+            out["order"] = PairList(names, self.succ)
+            # --- views of the order (levels, covering, sequence): satorder.model.order_views
+            if self._compact_views():
+                from satorder.model.views_compact import compact_views
+
+                out.update(compact_views(self.succ, names))
+            else:
+                import json
+
+                quoted = [json.dumps(name) for name in names]
+                out["views"] = Members(order_views.views_json(self.succ, quoted))
+        out.update(doc)
+        if extra:
+            out.update(extra)
+        write_document(out, write)
+
+    def _compact_views(self) -> bool:
+        """Views computed on the arrays (:mod:`satorder.model.views_compact`): a large order
+        held as compact successor sets, with numba present."""
+        from satorder.jit import HAVE_NUMBA
+
+        return (HAVE_NUMBA and getattr(self.succ, "is_compact", False)
+                and self.succ.total() >= order_views.ARRAYS_FROM)
 
     def to_json(self, include_order: bool = True) -> dict[str, Any]:
         """The machine-readable answer (fields fixed by the CLI contract, extras welcome).
         ``include_order=False`` leaves out ``order`` and its views (``levels``, ``covering``,
-        ``sequence``), which :meth:`to_json_text` writes straight from the successor sets."""
+        ``sequence``), which :meth:`write_json` writes straight from the successor sets."""
         p = self.problem
         names = p.items
         doc: dict[str, Any] = {"status": self.status, "engine": self.engine}

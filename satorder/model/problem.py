@@ -10,7 +10,9 @@ Semantics (docs/problems.md says the same for users):
 * ``prefer`` arc (a, b, w): wanted, may be given up at cost w.
 
 Items are stored as integer ids ``0..n-1``; ``items[i]`` is the user's name.  Comparable pairs are
-kept as an adjacency list of integer sets (``adj``), which is compact and fast at 50,000 items.
+kept as an adjacency list of integer sets (``adj``), which is compact and fast at 50,000 items;
+large edge lists are read into a :class:`~satorder.model.adjacency.CsrSets` instead, two integer
+arrays that behave as that list of sets (materialised on first use) for code off the hot path.
 ``incomparable is None`` means ``"others"``: every pair that is not comparable must stay unordered
 (the plain comparability-graph case).  Otherwise ``incomparable`` is an adjacency list of the pairs
 that must stay unordered, and all remaining pairs are open.
@@ -72,6 +74,8 @@ class Problem:
 
     @property
     def num_comparable(self) -> int:
+        if getattr(self.adj, "is_compact", False):  # CsrSets (large edge lists): no sets made
+            return self.adj.total() // 2
         return sum(len(s) for s in self.adj) // 2
 
     @property
@@ -299,6 +303,11 @@ class ProblemBuilder:
     def close_items(self, listed_in: str = '"items"') -> None:
         """From now on only the items already named are items: any other name is bad input."""
         self._closed = listed_in
+
+    @property
+    def closed(self) -> bool:
+        """Whether :meth:`close_items` was called (only named items are items)."""
+        return self._closed is not None
 
     def item(self, name, where: str) -> int:
         if not isinstance(name, str) or not name:

@@ -14,8 +14,8 @@ Three methods, and the result says which one was used:
   ancestor) and constrains only that node's choice: a series node then counts the linear
   orders of its children that respect its arcs (k!/r! times the linear extensions of the r
   children that carry arcs, by dynamic programming over down-sets), a prime node counts which
-  of its two orientations agree with its arcs.  Python integers keep any count exact
-  (K_100 has 100! answers).
+  of its two orientations agree with its arcs (:mod:`satorder.graph.node_choices`).  Python
+  integers keep any count exact (K_100 has 100! answers).
 * ``"enumeration"`` — problems with open pairs: every answer is produced by the SAT engine with
   blocking clauses (:mod:`satorder.sat.enumeration`) and certified
   (:mod:`satorder.pipeline.orders`); with ``limit`` or
@@ -45,21 +45,13 @@ from __future__ import annotations
 import math
 import time
 from dataclasses import dataclass, field
-from math import factorial
 from typing import Any
 
-from satorder.certify.decomposition import check_decomposition
+from satorder.certify.decomposition import check_tree_count
 from satorder.errors import CertificateError, InputError
+from satorder.graph.arcs import required_arcs
 from satorder.graph.forcing import transitive_orientation
-from satorder.graph.modular import (
-    LEAF,
-    PARALLEL,
-    PRIME,
-    SERIES,
-    ModuleNode,
-    modular_decomposition,
-    quotient,
-)
+from satorder.graph.node_choices import TooManyStates, constrain
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
 from satorder.pipeline.orders import (
@@ -74,7 +66,6 @@ from satorder.pipeline.solve import solve
 DECOMPOSITION, ENUMERATION, APPROXIMATE = "modular-decomposition", "enumeration", "approximate"
 METHODS = ("auto", DECOMPOSITION, ENUMERATION, APPROXIMATE)
 LISTING_THRESHOLD = 10_000  # method auto: past this many listed answers, count approximately
-MAX_DOWNSETS = 2_000_000  # beyond this many states a series node's arcs are too many to count
 
 
 @dataclass
@@ -111,10 +102,6 @@ class CountResult:
         doc["verified"] = self.verified
         doc["stats"] = self.stats
         return doc
-
-
-class TooManyStates(RuntimeError):
-    """A series node carries too many arcs for the down-set count."""
 
 
 def count_answers(problem: Problem, limit: int | None = None, solver: str | None = None,
@@ -266,133 +253,20 @@ def _count_by_enumeration(problem, limit, solver, time_limit, on_progress) -> Co
 
 
 # ------------------------------------------------------------------------ decomposition
-def required_arcs(problem: Problem) -> list[tuple[int, int]] | None:
-    """The arcs every answer must contain, for a problem without open pairs: fixed arcs, and
-    the reverse of each forbidden arc on a comparable pair (a comparable pair is ordered one way
-    or the other).  ``None`` if some fixed arc lies on a pair that must stay unordered."""
-    arcs = []
-    for a, b in problem.fixed:
-        if b not in problem.adj[a]:
-            return None
-        arcs.append((a, b))
-    for a, b in problem.forbidden:
-        if b in problem.adj[a]:
-            arcs.append((b, a))
-    return arcs
-
-
 def _count_by_decomposition(problem: Problem) -> CountResult:
-    adj = problem.adj
+    """The product formula of :mod:`satorder.graph.node_choices` (see the module docstring)."""
     stats: dict[str, Any] = {}
-    arcs = required_arcs(problem)
-    if arcs is None:
+    if required_arcs(problem) is None:
         return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
     if problem.n == 0:
         return CountResult(problem, 1, True, DECOMPOSITION, stats=stats)
-    if not transitive_orientation(adj).orientable:
+    if not transitive_orientation(problem.adj).orientable:
         stats["comparability_graph"] = False
         return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
-    tree = modular_decomposition(adj)
-    kinds = {SERIES: 0, PARALLEL: 0, PRIME: 0}
-    for node in tree.nodes():
-        if node.kind != LEAF:
-            kinds[node.kind] += 1
-    stats["nodes"] = kinds
-    result = CountResult(problem, 0, True, DECOMPOSITION, stats=stats, tree=tree)
-    placed = _place_arcs(tree, arcs, problem.n)
-    stats["constrained_nodes"] = len(placed)
-    total = 1
-    for node in tree.nodes():
-        if node.kind == SERIES:
-            total *= _series_count(len(node.children), placed.get(id(node), ()))
-        elif node.kind == PRIME:
-            total *= _prime_count(adj, node, placed.get(id(node), ()))
-        if total == 0:
-            break
-    result.count = total
-    return result
-
-
-def _place_arcs(tree: ModuleNode, arcs, n: int) -> dict[int, list[tuple[int, int]]]:
-    """For each arc (a, b), the node where a and b separate and the indices of the children
-    holding a and b there: ``{id(node): [(child_a, child_b), ...]}``."""
-    if not arcs:
-        return {}
-    parent: dict[int, tuple[ModuleNode, int]] = {}  # id(child) → (parent, child index)
-    depth: dict[int, int] = {id(tree): 0}
-    leaf: list[ModuleNode | None] = [None] * n
-    for node in tree.nodes():
-        if node.kind == LEAF:
-            leaf[node.item] = node
-        for i, c in enumerate(node.children):
-            parent[id(c)] = (node, i)
-            depth[id(c)] = depth[id(node)] + 1
-    out: dict[int, list[tuple[int, int]]] = {}
-    for a, b in arcs:
-        x, y = leaf[a], leaf[b]
-        ix = iy = -1
-        while depth[id(x)] > depth[id(y)]:
-            x, ix = parent[id(x)]
-        while depth[id(y)] > depth[id(x)]:
-            y, iy = parent[id(y)]
-        while x is not y:
-            x, ix = parent[id(x)]
-            y, iy = parent[id(y)]
-        # x is the lowest common ancestor; ix, iy the children on the way up from a and b
-        out.setdefault(id(x), []).append((ix, iy))
-    return out
-
-
-def _series_count(k: int, arcs) -> int:
-    """Linear orders of k children in which each arc (i, j) puts child i before child j."""
-    if not arcs:
-        return factorial(k)
-    involved = sorted({i for arc in arcs for i in arc})
-    r = len(involved)
-    pos = {c: t for t, c in enumerate(involved)}
-    before = [0] * r  # bitmask of the involved children that must come earlier
-    for i, j in arcs:
-        before[pos[j]] |= 1 << pos[i]
-    return factorial(k) // factorial(r) * _linear_extensions(before)
-
-
-def _linear_extensions(before: list[int]) -> int:
-    """Linear extensions of a relation on r elements (``before[j]``: elements that must precede
-    j), by dynamic programming over down-sets; 0 if the relation has a cycle."""
-    r = len(before)
-    full = (1 << r) - 1
-    ways = {0: 1}
-    for _ in range(r):
-        nxt: dict[int, int] = {}
-        for mask, w in ways.items():
-            for j in range(r):
-                bit = 1 << j
-                if not mask & bit and before[j] & ~mask == 0:
-                    m2 = mask | bit
-                    nxt[m2] = nxt.get(m2, 0) + w
-        if len(nxt) > MAX_DOWNSETS:
-            raise TooManyStates(f"{len(nxt)} down-sets")
-        ways = nxt
-        if not ways:
-            return 0
-    return ways.get(full, 0)
-
-
-def _prime_count(adj, node: ModuleNode, arcs) -> int:
-    """How many of the two transitive orientations of a prime node's quotient put each arc
-    (i, j) (children indices) as i before j."""
-    from satorder.graph.forcing import transitive_orientation
-
-    if not arcs:
-        return 2
-    q = quotient(adj, node)
-    res = transitive_orientation(q)
-    if not res.orientable:  # cannot happen when the whole graph is a comparability graph
-        return 0
-    up = {(a, b) for a, b in res.arcs()}
-    forward = all((i, j) in up for i, j in arcs)
-    backward = all((j, i) in up for i, j in arcs)
-    return int(forward) + int(backward)
+    con = constrain(problem, orient_primes=False)
+    stats["nodes"] = con.kinds
+    stats["constrained_nodes"] = sum(1 for c in con.nodes if c.arcs)
+    return CountResult(problem, con.count, True, DECOMPOSITION, stats=stats, tree=con.tree)
 
 
 # ------------------------------------------------------------------------ alongside an answer
@@ -440,13 +314,10 @@ def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int
             raise CertificateError(f"count is {result.count} but the problem is infeasible")
         checks.append("the solver certified that no answer exists")
     if result.tree is not None:
-        implied = check_decomposition(problem.adj, result.tree)
-        if implied is not None:
-            if not (problem.fixed or problem.forbidden) and implied != result.count:
-                raise CertificateError(f"the checked decomposition implies {implied} answers, "
-                                       f"the count says {result.count}")
-            checks.append("decomposition tree checked: every child a module, node kinds, prime "
-                          "quotients with one implication class")
+        done = check_tree_count(problem.adj, result.tree, result.count,
+                                bool(problem.fixed or problem.forbidden))
+        if done is not None:
+            checks.append(done)
     if result.method == DECOMPOSITION and 0 < result.count <= recount_up_to and \
             problem.n <= recount_items:
         again = _count_by_enumeration(hard, result.count + 1, solver, None, None)

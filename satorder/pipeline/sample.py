@@ -29,10 +29,9 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from satorder.certify.order import check_order
-from satorder.errors import InputError
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN, Status
-from satorder.pipeline.settled import EXACT_LIMIT, NODE_BUDGET
+from satorder.pipeline.settled import EXACT_LIMIT, bounded_tally, hard_part
 from satorder.sat import runner
 
 DECOMPOSITION, LISTING, UNIGEN = "modular-decomposition", "listing", "unigen"
@@ -82,18 +81,11 @@ def sample_answers(problem: Problem, k: int, seed: int = 0, method: str = "auto"
     """Draw ``k`` answers of ``problem`` at random (see the module docstring).  Preferences
     rank answers but rule none out, so they are ignored.  A problem without answers gives
     status ``infeasible`` and no orders; ``unknown`` when the time limit came first."""
-    if method not in METHODS:
-        raise ValueError(f"unknown method {method!r}; one of {', '.join(METHODS)}")
     if k < 0:
         raise ValueError(f"cannot draw {k} answers")
     t0 = time.perf_counter()
     deadline = runner.deadline_after(time_limit)
-    hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
-    if method == "auto":
-        method = LISTING if hard.has_open_pairs else DECOMPOSITION
-    if method == DECOMPOSITION and hard.has_open_pairs:
-        raise InputError(f"{problem.source}: has open pairs, which the decomposition method "
-                         "cannot describe; use --method listing, unigen or auto")
+    hard, method = hard_part(problem, method, METHODS)
     rng = random.Random(seed)
     res = None
     if hard.contradictions():  # two requirements clash on one pair: no answer, no search
@@ -115,8 +107,8 @@ def sample_answers(problem: Problem, k: int, seed: int = 0, method: str = "auto"
 
 
 def _by_decomposition(problem, k, rng, seed) -> SampleResult | None:
-    from satorder.graph.constrained import TooManyStates, constrain
     from satorder.graph.decomposition_sample import sample_order
+    from satorder.graph.node_choices import TooManyStates, constrain
 
     try:
         con = constrain(problem)
@@ -129,16 +121,10 @@ def _by_decomposition(problem, k, rng, seed) -> SampleResult | None:
 
 
 def _by_listing(problem, k, rng, seed, limit, deadline) -> SampleResult | None:
-    from satorder.graph.insertion import answers, tally
+    from satorder.graph.insertion import answers
 
-    nodes = [0]
-
-    def should_stop() -> bool:
-        nodes[0] += 4096
-        return nodes[0] > NODE_BUDGET or (deadline is not None and time.monotonic() > deadline)
-
-    tl = tally(problem, limit=limit, should_stop=should_stop)
-    if not tl.complete:
+    tl = bounded_tally(problem, limit, deadline)
+    if tl is None:
         return None
     if tl.total == 0:
         return SampleResult(problem, INFEASIBLE, LISTING, seed, answers=0)

@@ -1,8 +1,11 @@
 """The solving entry point: choose an engine, run it, certify the answer.
 
 ``solve(problem)`` sends plain problems (comparable pairs only, every other pair unordered) to
-the forcing algorithm (:mod:`satorder.graph.forcing`) and everything else to the SAT engine.  Every
-answer passes through :mod:`satorder.certify` before it is returned, unless ``verify=False``.
+the forcing algorithm (:mod:`satorder.graph.forcing`); the same problems with fixed or forbidden
+arcs to the forcing algorithm followed by the modular decomposition
+(:mod:`satorder.graph.constrained`); everything else (open pairs, preferences) to the SAT
+engine.  Every answer passes through :mod:`satorder.certify` before it is returned, unless
+``verify=False``.
 """
 
 from __future__ import annotations
@@ -23,17 +26,43 @@ class EngineDisagreement(CertificateError):
     """Two engines gave different verdicts on the same problem (a bug; the CLI exits 1)."""
 
 
+def forcing_answers(problem: Problem) -> bool:
+    """Can the forcing engine answer ``problem``: no open pairs, no preferences (fixed and
+    forbidden arcs are decided through the modular decomposition)?"""
+    return problem.incomparable is None and not problem.prefer
+
+
 def solve_forcing(problem: Problem) -> Answer:
-    """Solve a plain problem with the forcing algorithm (Golumbic 1980, ch. 5)."""
-    if not problem.is_plain:
+    """Solve a problem without open pairs and preferences with the forcing algorithm (Golumbic
+    1980, ch. 5); fixed and forbidden arcs are then decided at the nodes of the modular
+    decomposition (:func:`satorder.graph.constrained.orient_with_arcs`)."""
+    if not forcing_answers(problem):
         raise InputError(
-            f"{problem.source}: the forcing engine answers plain problems only (comparable "
-            "pairs, all other pairs unordered); use --engine sat or auto"
+            f"{problem.source}: the forcing engine answers problems without open pairs and "
+            "without preferences (comparable pairs, fixed and forbidden arcs, all other pairs "
+            "unordered); use --engine sat or auto"
         )
     t0 = time.perf_counter()
-    res = transitive_orientation(problem.adj)
+    clash = None if problem.is_plain else problem.contradictions()
+    if clash:  # two requirements clash on one pair: they are a minimal core already
+        return Answer(problem, INFEASIBLE, "decomposition", core=list(clash[0]),
+                      stats={"clash": "one pair",
+                             "seconds": round(time.perf_counter() - t0, 6)})
+    res = transitive_orientation(problem.adj, colours=not problem.is_plain)
     stats = {"implication_classes": res.num_classes, "seconds": 0.0}
-    if res.orientable:
+    if res.orientable and not problem.is_plain:
+        from satorder.graph.constrained import orient_with_arcs
+
+        out = orient_with_arcs(problem, res)
+        stats["decomposition"] = out.stats
+        if out.feasible:
+            res.up = out.up
+            ans = Answer(problem, FEASIBLE, "decomposition", succ=res.successor_sets(),
+                         stats=stats)
+        else:
+            stats["clash"] = out.clash
+            ans = Answer(problem, INFEASIBLE, "decomposition", core=out.core, stats=stats)
+    elif res.orientable:
         ans = Answer(problem, FEASIBLE, "forcing", succ=res.successor_sets(), stats=stats)
     else:
         core = [Requirement(Kind.COMPARABLE, s.arc) for s in res.chain[:-1]]
@@ -86,7 +115,7 @@ def solve(
     if engine not in ENGINES:
         raise ValueError(f"unknown engine {engine!r}; choose one of {', '.join(ENGINES)}")
     if engine == "auto":
-        engine = "forcing" if problem.is_plain else "sat"
+        engine = "forcing" if forcing_answers(problem) else "sat"
     if problem.prefer and engine == "sat":  # weighted preferences: MaxSAT (satorder.sat.prefer)
         from satorder.sat.prefer import solve_preferences
 
@@ -106,41 +135,23 @@ def solve(
 
 
 def _both(problem: Problem, solver, time_limit, verify_answer: bool) -> Answer:
-    """Run the forcing algorithm and the SAT engine and insist that they agree.
-
-    Plain problems: the verdicts must match.  With fixed or forbidden arcs (every unnamed pair
-    unordered) the forcing algorithm answers the comparable pairs alone: if they admit no order,
-    SAT must say infeasible; if its order happens to meet the arcs too, SAT must say feasible.
-    """
+    """Run the forcing engine (with the modular decomposition for fixed and forbidden arcs) and
+    the SAT engine, and insist that their verdicts agree (when SAT answers in time)."""
     from satorder.sat.engine import solve_sat
 
-    if problem.incomparable is not None or problem.prefer:
+    if not forcing_answers(problem):
         raise InputError(
             f"{problem.source}: --engine both needs a problem whose unnamed pairs stay unordered "
             "and without preferences (the forcing algorithm cannot answer open pairs)"
         )
-    base = problem if problem.is_plain else problem.with_requirements(fixed=[], forbidden=[])
-    a = solve_forcing(base)
+    a = solve_forcing(problem)
     b = solve_sat(problem, solver=solver, time_limit=time_limit)
     if verify_answer:
         verify(a)
         verify(b)
-    if problem.is_plain:
-        expected = a.status
-    elif a.status == INFEASIBLE:
-        expected = INFEASIBLE
-    else:
-        try:
-            certify.check_order(problem, a.succ)
-            expected = FEASIBLE
-        except CertificateError:
-            expected = None  # forcing's orientation breaks an arc; another one may not
-    if b.status != UNKNOWN and expected is not None and b.status != expected:
+    if b.status != UNKNOWN and b.status != a.status:
         raise EngineDisagreement(
-            f"forcing says {expected}, SAT says {b.status} on {problem.source}"
+            f"{a.engine} says {a.status}, SAT says {b.status} on {problem.source}"
         )
-    if problem.is_plain:
-        a.stats["sat"] = {"status": b.status, **b.stats}
-        return a
-    b.stats["forcing"] = {"status": a.status, "implies": expected, **a.stats}
-    return b
+    a.stats["sat"] = {"status": b.status, **b.stats}
+    return a

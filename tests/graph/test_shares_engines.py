@@ -18,10 +18,10 @@ import pytest
 from order_reference import all_posets, brute_answers, random_requirements
 from scipy.stats import chisquare
 
-from satorder.graph.constrained import constrain
 from satorder.graph.decomposition_sample import sample_order
 from satorder.graph.insertion import answers, tally
 from satorder.graph.linear_extensions import LinearExtensions, TooManyStates
+from satorder.graph.node_choices import constrain
 from satorder.graph.pair_shares import shares
 from satorder.model.problem import Problem
 

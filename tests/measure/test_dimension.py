@@ -169,14 +169,16 @@ def test_bounded_beyond_reach(monkeypatch):
 
 def test_sat_limit_gives_bounds():
     succ = standard_example(4)
-    # 8 items > 6: one try for 3 orders only; it fails, which proves >= 4 (re-solved by the
-    # checker), and a greedy realizer of 4 orders meets that bound
+    # 8 items > 6: one try for 3 orders only; it fails, which proves >= 4 (checked pair by
+    # pair), and a greedy realizer of 4 orders meets that bound
     d = dimension(succ, sat_limit=6)
     assert d.status == "exact" and d.value == 4 and d.witness_lower == 4
     check_dimension(succ, d)
     succ = standard_example(5)
-    d = dimension(succ, sat_limit=4)  # >= 4 proven the same way, 5 orders found greedily
-    assert d.status == "bounded" and (d.lower, d.upper) == (4, 5) and len(d.realizer) == 5
+    # the try for 3 orders fails on five pairs that pairwise form alternating two-cycles,
+    # which proves >= 5 (Dushnik & Miller 1941), and 5 orders are found greedily
+    d = dimension(succ, sat_limit=4)
+    assert d.status == "exact" and d.value == 5 and len(d.witness_pairs) == 5
     check_dimension(succ, d)
     succ = standard_example(3)
     d = dimension(succ, sat_limit=4)  # the one try for 3 orders settles S_3

@@ -18,11 +18,15 @@ intersection is P (Dushnik & Miller 1941).  How it is found here:
    ``L1 = P ∪ Q`` and ``L2 = P ∪ Q⁻¹``: an item's position in ``L1`` is the number of items
    below it in P plus the number before it in Q.  When no orientation exists, the forcing
    chain names a sub-order of dimension ≥ 3, which is then shrunk item by item to a small one.
-3. **SAT for dimension ≥ 3** on parts of at most ``sat_limit`` items: ``k`` linear orders, each
-   extending P (transitivity clauses over item triples), that together reverse every
-   incomparable pair; ``k = 3, 4, …`` until satisfiable.  Parts of up to ``3 · sat_limit``
-   items get one short try (5 s) for three orders, which settles dimension 3 when it succeeds
-   and, on parts of at most 60 items, proves dimension ≥ 4 when it fails.
+3. **SAT for dimension ≥ 3** on parts of at most ``sat_limit`` items (150): the lazy search
+   over critical pairs of :mod:`satorder.measure.dimension.lazy` (each critical pair reversed
+   in one of ``k`` linear extensions, alternating cycles cut as the solver meets them; Trotter
+   1992), ``k = 3, 4, …`` until satisfiable.  Each "no" leaves a checked lower-bound witness:
+   pairs that pairwise form alternating two-cycles, or a small sub-order re-solved by the
+   checker.  Parts of up to ``3 · sat_limit`` items get one short try (5 s) for three orders,
+   which settles dimension 3 when it succeeds and proves dimension ≥ 4 (with such a witness)
+   when it fails.  (:func:`sat_realizer`, the textbook encoding over item triples, is kept as
+   an independent formulation for the tests.)
 4. **Large parts** (incomparability graph too large to build): first a quick search for a small
    sub-order of dimension ≥ 3 among random connected pieces; if none, *ordered vertex
    partitioning* (McConnell & Spinrad 2000) on the incomparability graph, driven by the

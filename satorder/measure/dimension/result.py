@@ -24,7 +24,11 @@ class Dimension:
     realizer: list[list[int]] | None = None
     witness: list[int] | None = None
     witness_lower: int | None = None
+    witness_pairs: list[tuple[int, int]] | None = None
     witness_chain: list | None = None
+    # incomparable pairs (a, b) that pairwise form alternating two-cycles: a lower bound of
+    # their number, checked pair by pair (Trotter 1992)
+    witness_pairs: list[tuple[int, int]] | None = None
     notes: list[str] = field(default_factory=list)
     stats: dict = field(default_factory=dict)
 
@@ -42,6 +46,9 @@ class Dimension:
         if self.witness is not None:
             doc["dimension_witness"] = {"items": [names[i] for i in self.witness],
                                         "dimension_at_least": self.witness_lower}
+            if self.witness_pairs is not None:
+                doc["dimension_witness"]["pairs"] = [[names[a], names[b]]
+                                                     for a, b in self.witness_pairs]
         if self.notes:
             doc["dimension_notes"] = self.notes
         return doc
@@ -56,3 +63,4 @@ class Part:
     realizer: list[list[int]] | None  # item ids; ``upper`` orders when present
     witness: list[int] | None = None
     witness_lower: int | None = None
+    witness_pairs: list[tuple[int, int]] | None = None

@@ -13,17 +13,24 @@ from satorder.measure.dimension.conjugate import (
     shrink_witness,
 )
 from satorder.measure.dimension.greedy import GREEDY_LIMIT, _greedy_bound
+from satorder.measure.dimension.lazy import (
+    MAX_CRITICAL_PAIRS,
+    below_or_equal,
+    lazy_realizer,
+    lower_witness,
+)
 from satorder.measure.dimension.partition import large_part_realizer
 from satorder.measure.dimension.result import Dimension, Part
-from satorder.measure.dimension.sat import sat_realizer
 from satorder.measure.dimension.split import _co_components, _components, _hiraguchi, _join, _local
 from satorder.sat import runner
 
 #: largest incomparability graph (pairs) built for the exact dimension-2 test of one part
 MAX_INCOMPARABLE_PAIRS = 3_000_000
+#: largest part (items) whose dimension ≥ 3 is searched exactly (lazy critical-pair SAT)
+SAT_LIMIT = 150
 
 
-def dimension_of_items(succ, items, sat_limit=40, deadline=None):
+def dimension_of_items(succ, items, sat_limit=SAT_LIMIT, deadline=None):
     """:func:`dimension` of the sub-order on ``items``, answers in item ids."""
     sub = _local(succ, items)
     d = dimension(sub, sat_limit=sat_limit, time_limit=None, deadline=deadline)
@@ -33,7 +40,7 @@ def dimension_of_items(succ, items, sat_limit=40, deadline=None):
 
 
 def _bounded(succ, items, lower, upper, witness, witness_lower, sub=None,
-             deadline=None) -> Part:
+             deadline=None, pairs=None) -> Part:
     """A part known only within bounds: try a greedy realizer to lower the upper bound (it
     settles the dimension when it has ``lower`` orders), for at most 10 s and never past the
     ``deadline``."""
@@ -42,8 +49,8 @@ def _bounded(succ, items, lower, upper, witness, witness_lower, sub=None,
         r = _greedy_bound(sub if sub is not None else _local(succ, items), items, upper,
                           seconds=seconds)
         if r is not None:
-            return Part(lower, len(r), r, witness, witness_lower)
-    return Part(lower, upper, None, witness, witness_lower)
+            return Part(lower, len(r), r, witness, witness_lower, pairs)
+    return Part(lower, upper, None, witness, witness_lower, pairs)
 
 
 def _at_most(seconds: float, deadline: float | None) -> float:
@@ -93,33 +100,73 @@ def _solve_part(succ, pred, items, sat_limit, deadline, notes) -> Part:
     if k > sat_limit:
         if k <= 3 * sat_limit:
             # the witness proves ≥ 3; three orders found within a short budget settle it
-            r = sat_realizer(sub, 3, time_limit=5.0, deadline=deadline)
-            if isinstance(r, list):
-                return Part(3, 3, [[items[i] for i in lin] for lin in r], wit, 3)
-            if r is None and upper >= 4 and k <= 60:  # proven: no 3 orders (checkable size)
-                part = _bounded(succ, items, 4, upper, list(items), 4, sub, deadline)
-                notes.append(f"a part of {k} items has dimension ≥ 4 and more than "
-                             f"{sat_limit} items (the SAT limit); dimension bounded")
-                return part
+            r = lazy_realizer(sub, 3, runner.deadline_after(5.0, deadline))
+            if r.status == "yes":
+                return Part(3, 3, [[items[i] for i in lin] for lin in r.realizer], wit, 3)
+            if r.status == "no":  # proven: no 3 orders; claimed with a checkable witness
+                lower, found, pairs = _lower_from_no(sub, items, 3, r, deadline)
+                if found is not None:
+                    part = _bounded(succ, items, lower, max(lower, upper), found, lower, sub,
+                                    deadline, pairs)
+                    if part.upper > part.lower:
+                        notes.append(f"a part of {k} items has dimension ≥ {lower} and more "
+                                     f"than {sat_limit} items (the SAT limit); dimension "
+                                     "bounded")
+                    return part
         part = _bounded(succ, items, 3, max(3, upper), wit, 3, sub, deadline)
         if part.upper > 3:
             notes.append(f"a part of {k} items has dimension ≥ 3 and more than {sat_limit} "
                          "items (the SAT limit); dimension bounded")
         return part
-    for d in range(3, upper + 1):
-        r = sat_realizer(sub, d, deadline=deadline)
-        if r == "unknown":
-            notes.append(f"SAT search for a realizer of size {d} ran out of time on a part of "
+    return _exact_part(succ, items, sub, wit, upper, deadline, notes)
+
+
+def _lower_from_no(sub, items, d, r, deadline):
+    """From a "no" for ``d`` orders: ``(lower bound, witness items, witness pairs)`` in item
+    ids — the clique of two-cycles (its size), or a small sub-order (``d + 1``) — or
+    ``(d + 1, None, None)`` when no sub-order small enough for the independent check is found.
+    """
+    if r.clique:
+        pairs = [(items[a], items[b]) for a, b in r.pairs]
+        return len(pairs), sorted({v for pair in pairs for v in pair}), pairs
+    small = lower_witness(sub, d, r, deadline)
+    return d + 1, None if small is None else [items[v] for v in small], None
+
+
+def _exact_part(succ, items, sub, wit, upper, deadline, notes) -> Part:
+    """Dimension ≥ 3 (``wit`` proves it) on a part within the SAT limit: the lazy
+    critical-pair search for d = 3, 4, … orders (:mod:`satorder.measure.dimension.lazy`).  Each
+    "no" at d leaves a witness for ≥ d + 1: a clique of pairwise two-cycles, or a small
+    sub-order confirmed afresh; the bounds are the fallback when the deadline comes first."""
+    k = len(items)
+    le = below_or_equal(sub)
+    lower, witness, witness_lower, pairs = 3, wit, 3, None
+    d = 3
+    while d <= upper:
+        r = lazy_realizer(sub, d, deadline, le)
+        if r.status == "yes":
+            return Part(d, d, [[items[i] for i in lin] for lin in r.realizer], witness,
+                        witness_lower, pairs)
+        if r.status == "unknown":
+            why = ("has too many critical pairs" if r.stats["critical_pairs"] >
+                   MAX_CRITICAL_PAIRS else "ran out of time")
+            notes.append(f"the exact search for a realizer of {d} orders {why} on a part of "
                          f"{k} items")
-            return _bounded(succ, items, d, upper, list(items) if d > 3 else wit, d, sub,
-                            deadline)
-        if r is not None:
-            return Part(d, d, [[items[i] for i in lin] for lin in r],
-                         list(items) if d > 3 else wit, d)
+            return _bounded(succ, items, lower, upper, witness, witness_lower, sub, deadline,
+                            pairs)
+        found_lower, found, found_pairs = _lower_from_no(sub, items, d, r, deadline)
+        if found is None:  # proven, but no sub-order small enough for the checker
+            notes.append(f"no {d} orders realize a part of {k} items, but no witness "
+                         "sub-order small enough for the independent check was found in "
+                         "time; that bound is not claimed")
+            return _bounded(succ, items, lower, upper, witness, witness_lower, sub,
+                            deadline, pairs)
+        lower, witness, witness_lower, pairs = found_lower, found, found_lower, found_pairs
+        d = lower
     raise AssertionError("no realizer within the proven upper bound")  # pragma: no cover
 
 
-def dimension(succ: list[set[int]], sat_limit: int = 40,
+def dimension(succ: list[set[int]], sat_limit: int = SAT_LIMIT,
               time_limit: float | None = 60.0, deadline: float | None = None) -> Dimension:
     """The dimension of an order, with a realizer when exact (see module doc).
 
@@ -172,7 +219,8 @@ def dimension(succ: list[set[int]], sat_limit: int = 40,
     part: Part = root["part"]
     exact = part.realizer is not None and len(part.realizer) == part.lower
     dim = Dimension("exact" if exact else "bounded", part.lower, part.upper,
-                    part.realizer, part.witness, part.witness_lower, notes=notes)
+                    part.realizer, part.witness, part.witness_lower,
+                    witness_pairs=part.witness_pairs, notes=notes)
     if dim.witness is not None and dim.witness_lower == 3:
         dim.witness_chain = _witness_chain(succ, dim.witness)
     dim.stats = {**counts, "seconds": round(time.perf_counter() - t0, 4)}

@@ -99,5 +99,6 @@ def _join(node):
         upper = d
     node["part"] = Part(lower, upper, realizer,
                          None if wit is None else wit.witness,
-                         None if wit is None else wit.witness_lower)
+                         None if wit is None else wit.witness_lower,
+                         None if wit is None else wit.witness_pairs)
     node.pop("children")
