@@ -88,12 +88,17 @@ class Constrained:
     kinds: dict[str, int] = field(default_factory=dict)
 
 
-def constrain(problem: Problem, orient_primes: bool = True) -> Constrained:
+def constrain(problem: Problem, orient_primes: bool = True,
+              answer: list[set[int]] | None = None) -> Constrained:
     """Decompose ``problem`` (no open pairs) and place its arcs; see the module docstring.
 
     Each prime node's quotient is oriented (needed for shares and samples; with
     ``orient_primes=False`` only the prime nodes that carry arcs are, which is all counting
-    needs once the whole graph is known to be a comparability graph).  Raises
+    needs once the whole graph is known to be a comparability graph).  Given a certified
+    ``answer`` (successor sets), a prime node takes its orientation from it: an answer is a
+    transitive orientation, and so is its restriction to one representative per child (an
+    induced subgraph isomorphic to the quotient), with no second run of the forcing algorithm.
+    Raises
     :class:`~satorder.graph.linear_extensions.TooManyStates` when a series node carries too
     many arcs for the down-set count, and ``ValueError`` for a problem with open pairs.
     """
@@ -126,7 +131,7 @@ def constrain(problem: Problem, orient_primes: bool = True) -> Constrained:
                 reason = reason or "the fixed and forbidden arcs order the parts of a series " \
                                    "node in a cycle"
         elif orient_primes or choice.arcs:
-            if not _prime(adj, choice):
+            if not _prime(adj, choice, answer):
                 total, reason = 0, "the comparable pairs admit no order (not a comparability " \
                                    "graph)"
             elif choice.count == 0:
@@ -155,14 +160,18 @@ def _series(choice: NodeChoices) -> None:
     choice.count = prod(range(r + 1, k + 1)) * choice.ext.count  # k!/r! × extensions
 
 
-def _prime(adj, choice: NodeChoices) -> bool:
+def _prime(adj, choice: NodeChoices, answer: list[set[int]] | None = None) -> bool:
     """Orient a prime node's quotient; False when it has no transitive orientation."""
     q = quotient(adj, choice.node)
-    res = transitive_orientation(q)
-    if not res.orientable:
-        choice.count = 0
-        return False
-    up = set(res.arcs())
+    if answer is not None:
+        reps = [c.representative for c in choice.node.children]
+        up = {(i, j) for i, r in enumerate(reps) for j in q[i] if reps[j] in answer[r]}
+    else:
+        res = transitive_orientation(q)
+        if not res.orientable:
+            choice.count = 0
+            return False
+        up = set(res.arcs())
     forward = all((i, j) in up for i, j in choice.arcs)
     backward = all((j, i) in up for i, j in choice.arcs)
     choice.quotient, choice.up = q, up

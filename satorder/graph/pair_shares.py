@@ -75,16 +75,24 @@ class ShareBlock:
                           self.exact_settled)
 
 
-def shares(con: Constrained) -> Iterator[ShareBlock]:
+def shares(con: Constrained, arc_free_nodes: bool = True) -> Iterator[ShareBlock]:
     """The share blocks of every comparable pair (none when no answer exists), each oriented
-    so that ``before >= after``."""
+    so that ``before >= after``.  With ``arc_free_nodes=False`` only the nodes that carry arcs
+    give blocks: at any other node every pair's share is 1/2 (all of its choices are
+    admissible, and their reverses too), which the caller states once."""
     if con.count == 0:
         return
     for choice in con.nodes:
+        if not arc_free_nodes and not choice.arcs:
+            continue
         items = [sorted(c.items) for c in choice.node.children]
+        rest = {}  # 1 - p, computed once per share
         for i, j, p in (_series(choice) if choice.kind == SERIES else _prime(choice)):
-            block = ShareBlock(items[i], items[j], p, 1 - p)
-            yield block if block.before >= block.after else block.flipped()
+            q = rest.get(p)
+            if q is None:
+                q = rest[p] = 1 - p
+            yield (ShareBlock(items[i], items[j], p, q) if p >= q else
+                   ShareBlock(items[j], items[i], q, p))
 
 
 def _series(choice: NodeChoices):
@@ -119,8 +127,9 @@ def _series(choice: NodeChoices):
 def _prime(choice: NodeChoices):
     forward, backward = choice.allowed
     p_up = Fraction(int(forward), int(forward) + int(backward))
+    p_down = 1 - p_up
     for i, j in sorted(choice.up):
         if i < j:
             yield i, j, p_up
         else:
-            yield j, i, 1 - p_up
+            yield j, i, p_down

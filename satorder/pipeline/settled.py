@@ -5,8 +5,10 @@ putting ``a`` before ``b``, ``b`` before ``a``, or neither, and whether the pair
 Three methods, and the result says which one was used (``method``):
 
 * ``"modular-decomposition"`` — problems without open pairs, exact at any size: the shares
-  are read off the modular decomposition, one formula per pair of children of a node
-  (:mod:`satorder.graph.pair_shares`), so 50,000 items and millions of pairs cost one pass.
+  are read off the modular decomposition, one formula per pair of children of a node that
+  carries fixed or forbidden arcs (:mod:`satorder.graph.pair_shares`); every other comparable
+  pair has share 1/2 each way (:mod:`satorder.pipeline.settled_result`), so 50,000 items and
+  millions of pairs cost one decomposition.
 * ``"listing"`` — problems with open pairs and at most :data:`EXACT_LIMIT` answers, exact:
   every answer is counted by inserting the items one at a time
   (:mod:`satorder.graph.insertion`), each pair's count added up on the way.
@@ -18,13 +20,15 @@ Whether a pair is settled is exact in every method: with open pairs, the relatio
 takes in some answer are decided by SAT calls with assumptions (:mod:`satorder.sat.support`),
 every witness answer certified.
 
-Checks by code that did not produce the result (their list is in ``checks``): the decomposition
-tree (:mod:`satorder.certify.decomposition`) and a uniformly drawn answer that meets every
-settled pair (:func:`satorder.certify.order.check_order`); for the listing, every relation with
-a positive share has a certified witness and every other one is refuted by the SAT engine; up
-to :data:`RECOUNT` answers, every share is recounted from a SAT enumeration of certified orders.
-An infeasible problem gets the verified answer of :func:`satorder.pipeline.solve.solve`, whose
-core (or forcing chain) says why.
+Checks by code that did not produce the result (their list is in ``checks``): for the
+decomposition, the tree (:mod:`satorder.certify.decomposition`, up to its size budget) and the
+answer of :func:`satorder.pipeline.solve.solve`, certified by
+:func:`satorder.certify.order.check_order`, which must meet every settled pair; for the listing,
+every relation with a positive share has a certified witness and every other one is refuted by
+the SAT engine; up to :data:`RECOUNT` answers, every share is recounted by another engine (the
+listing engine for the decomposition, a SAT enumeration of certified orders for the listing).
+An infeasible problem gets the verified answer of ``solve``, whose core (or forcing chain) says
+why.
 
 >>> from satorder.model.problem import Problem
 >>> p = Problem.from_lists(comparable=[("a", "b"), ("b", "c"), ("a", "c")], fixed=[("a", "b")])
@@ -35,139 +39,27 @@ core (or forcing chain) says why.
 
 from __future__ import annotations
 
-import random
 import time
-from dataclasses import dataclass, field
 from fractions import Fraction
-from typing import Any
 
 from satorder.certify.decomposition import check_tree_count
 from satorder.certify.order import check_order
 from satorder.errors import CertificateError, InputError, TimeLimitReached
-from satorder.graph.decomposition_sample import sample_order
 from satorder.graph.node_choices import TooManyStates, constrain
 from satorder.graph.pair_shares import ShareBlock, shares
-from satorder.model.answer import Answer
 from satorder.model.problem import Problem
-from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN, Status
+from satorder.model.requirement import FEASIBLE, INFEASIBLE, UNKNOWN
+from satorder.pipeline.settled_result import APPROXIMATE, SettledResult
 from satorder.sat import runner
 from satorder.sat.support import AFTER, BEFORE, UNORDERED, pair_support, relation
 
-DECOMPOSITION, LISTING, APPROXIMATE = "modular-decomposition", "listing", "approximate"
+DECOMPOSITION, LISTING = "modular-decomposition", "listing"
 METHODS = ("auto", DECOMPOSITION, LISTING, APPROXIMATE)
 EXACT_LIMIT = 100_000  # answers up to which problems with open pairs get exact shares
 NODE_BUDGET = 20 * EXACT_LIMIT  # search nodes the listing may spend before giving way
 SAMPLES = 200  # answers drawn for approximate shares (each costs UniGen a hashed search)
 RECOUNT = 300  # exact results with at most this many answers are recounted by SAT enumeration
 FLIP = {BEFORE: AFTER, AFTER: BEFORE, UNORDERED: UNORDERED}
-
-
-@dataclass
-class SettledResult:
-    """The outcome of :func:`settled`; ``blocks`` hold the shares (see
-    :class:`~satorder.graph.pair_shares.ShareBlock`), ``answer`` the verified answer of
-    ``solve`` when the problem is infeasible."""
-
-    problem: Problem
-    status: Status
-    method: str
-    answers: int | None
-    exact: bool
-    blocks: list[ShareBlock] = field(default_factory=list)
-    epsilon: float | None = None
-    delta: float | None = None
-    samples: int = 0
-    answer: Answer | None = None
-    drawn: list = field(default_factory=list, repr=False)  # sampled answers (approximate)
-    verified: bool = False
-    checks: list[str] = field(default_factory=list)
-    notes: list[str] = field(default_factory=list)
-    stats: dict[str, Any] = field(default_factory=dict)
-
-    def __post_init__(self) -> None:
-        self.status = Status(self.status)
-
-    # ------------------------------------------------------------------ reading
-    def pairs(self):
-        """Every pair that may be ordered as ``(a, b, before, after, unordered, settled)``
-        (item ids, shares as floats), ``a`` listed so that ``before >= after``."""
-        for blk in self.blocks:
-            values = (float(blk.before), float(blk.after), float(blk.unordered), blk.settled)
-            for a in blk.left:
-                for b in blk.right:
-                    yield (a, b, *values)
-
-    def counts(self) -> dict[str, int]:
-        """Pairs settled before (one way), settled unordered, and free."""
-        out = {"settled_before": 0, "settled_unordered": 0, "free": 0}
-        for blk in self.blocks:
-            key = ("free" if not blk.settled else
-                   "settled_unordered" if blk.unordered == 1 else "settled_before")
-            out[key] += blk.pairs
-        return out
-
-    def share(self, a: int, b: int) -> tuple[float, float, float] | None:
-        """``(before, after, unordered)`` of the pair ``(a, b)``, or None if it is not listed
-        (it must stay unordered).  Scans the blocks: for single look-ups."""
-        for blk in self.blocks:
-            if a in blk.left and b in blk.right:
-                return float(blk.before), float(blk.after), float(blk.unordered)
-            if b in blk.left and a in blk.right:
-                return float(blk.after), float(blk.before), float(blk.unordered)
-        return None
-
-    # ------------------------------------------------------------------ JSON
-    def _head(self) -> dict[str, Any]:
-        doc: dict[str, Any] = {"status": self.status, "answers": self.answers,
-                               "exact": self.exact, "method": self.method}
-        if self.method == APPROXIMATE:
-            doc["epsilon"], doc["delta"], doc["samples"] = self.epsilon, self.delta, self.samples
-        return doc
-
-    def _tail(self) -> dict[str, Any]:
-        doc: dict[str, Any] = {**self.counts()}
-        if self.answer is not None and self.status == INFEASIBLE:
-            sub = self.answer.to_json()
-            for key in ("conflict", "core"):
-                if key in sub:
-                    doc[key] = sub[key]
-        if self.notes:
-            doc["notes"] = self.notes
-        doc["item_count"] = self.problem.n
-        doc["comparable_pairs"] = self.problem.num_comparable
-        doc["verified"] = self.verified
-        doc["checks"] = self.checks
-        doc["stats"] = self.stats
-        return doc
-
-    def to_json(self) -> dict[str, Any]:
-        """The machine-readable result (the contract of docs/cli.md) as a dict."""
-        names = self.problem.items
-        rows = [{"pair": [names[a], names[b]], "before": x, "after": y, "unordered": z,
-                 "settled": s} for a, b, x, y, z, s in self.pairs()]
-        return {**self._head(), "pairs": rows, **self._tail()}
-
-    def to_json_text(self) -> str:
-        """The same document as one line of text, written block by block: the part shared by
-        a block's pairs is formatted once, so millions of pairs cost one string join."""
-        import json
-
-        def dumps(doc):
-            return json.dumps(doc, separators=(",", ":"))
-
-        q = [json.dumps(name) for name in self.problem.items]
-        parts = []
-        for blk in self.blocks:
-            tail = (f'],"before":{float(blk.before)!r},"after":{float(blk.after)!r},'
-                    f'"unordered":{float(blk.unordered)!r},'
-                    f'"settled":{"true" if blk.settled else "false"}}}')
-            right = [q[b] for b in blk.right]
-            for a in blk.left:
-                head = '{"pair":[' + q[a] + ","
-                parts.append(",".join([head + qb + tail for qb in right]))
-        parts = [p for p in parts if p]
-        return (dumps(self._head())[:-1] + ',"pairs":[' + ",".join(parts) + "],"
-                + dumps(self._tail())[1:] + "\n")
 
 
 # ---------------------------------------------------------------------- entry point
@@ -185,7 +77,7 @@ def settled(problem: Problem, method: str = "auto", time_limit: float | None = N
         res = SettledResult(hard, INFEASIBLE, method, 0, True)
     if res is None and method == DECOMPOSITION:
         try:
-            res = _by_decomposition(hard, seed)
+            res = _by_decomposition(hard, solver, time_limit)
         except TooManyStates:
             method = LISTING
     if res is None and method == LISTING:
@@ -197,6 +89,8 @@ def settled(problem: Problem, method: str = "auto", time_limit: float | None = N
     if res is None:
         res = _by_approximation(hard, samples, epsilon, delta, seed, solver, deadline)
     res.problem = problem
+    if res.answer is not None:
+        res.answer.problem = problem
     if res.status == INFEASIBLE or (res.status == FEASIBLE and res.answers == 0):
         res = _infeasible(problem, res, solver, time_limit)
     elif res.status == FEASIBLE:
@@ -224,27 +118,41 @@ def hard_part(problem: Problem, method: str, methods: tuple[str, ...]) -> tuple[
 
 
 # ---------------------------------------------------------------------- the three methods
-def _by_decomposition(problem: Problem, seed: int) -> SettledResult:
+def _by_decomposition(problem: Problem, solver, time_limit) -> SettledResult:
+    """Shares from the decomposition; first ``solve``'s verified answer (its core when there is
+    none), which every settled pair must hold in."""
+    from satorder.pipeline.solve import solve
+
     t = time.perf_counter()
-    con = constrain(problem)
-    res = SettledResult(problem, FEASIBLE if con.count else INFEASIBLE, DECOMPOSITION,
-                        con.count, True)
+    ans = solve(problem, solver=solver, time_limit=time_limit)
+    res = SettledResult(problem, ans.status, DECOMPOSITION, None, ans.status == INFEASIBLE,
+                        answer=ans)
+    res.stats["solve_seconds"] = round(time.perf_counter() - t, 6)
+    if ans.status != FEASIBLE:
+        res.answers = 0 if ans.status == INFEASIBLE else None
+        return res
+    if not ans.verified:  # pragma: no cover - solve certifies every answer it returns
+        raise CertificateError("solve returned an answer it could not certify")
+    t = time.perf_counter()
+    con = constrain(problem, orient_primes=False, answer=ans.succ)
+    res.answers, res.exact = con.count, True
     res.stats["nodes"] = con.kinds
     res.stats["decomposition_seconds"] = round(time.perf_counter() - t, 6)
-    if con.count:
-        res.blocks = list(shares(con))
-        res.stats["blocks"] = len(res.blocks)
-        t = time.perf_counter()
-        succ = sample_order(con, random.Random(seed))
-        check_order(problem, succ)  # a uniformly drawn answer, certified
-        _agrees(res, succ, "the certified answer drawn at random")
-        res.checks.append("a uniformly drawn answer is certified and meets every settled pair")
-        if con.tree is not None:
-            done = check_tree_count(problem.adj, con.tree, con.count,
-                                    bool(problem.fixed or problem.forbidden))
-            if done is not None:
-                res.checks.append(done)
-        res.stats["check_seconds"] = round(time.perf_counter() - t, 6)
+    if con.count == 0:
+        raise CertificateError("the decomposition finds no answer, but the solver found a "
+                               "certified one")
+    res.blocks = list(shares(con, arc_free_nodes=False))
+    res.rest_half = True
+    res.stats["blocks"] = len(res.blocks)
+    t = time.perf_counter()
+    _agrees(res, ans.succ, "the certified answer of solve")
+    res.checks.append("the certified answer of solve meets every settled pair")
+    if con.tree is not None:
+        done = check_tree_count(problem.adj, con.tree, con.count,
+                                bool(problem.fixed or problem.forbidden))
+        if done is not None:
+            res.checks.append(done)
+    res.stats["check_seconds"] = round(time.perf_counter() - t, 6)
     return res
 
 
@@ -415,14 +323,12 @@ def _recount(res: SettledResult, problem: Problem, found: int, complete: bool, b
     if not complete or found != res.answers:
         raise CertificateError(f"{res.answers} answers claimed, {engine} finds "
                                f"{found}{'' if complete else ' or more'}")
-    for blk in res.blocks:
-        for a in blk.left:
-            for b in blk.right:
-                x = Fraction(before.get((a, b), 0), found)
-                y = Fraction(before.get((b, a), 0), found)
-                if x != blk.before or y != blk.after:
-                    raise CertificateError(f"pair {problem.items[a]}, {problem.items[b]}: "
-                                           f"shares differ from {engine}")
+    for a, b, bx, by, _, _ in res.exact_pairs():
+        x = Fraction(before.get((a, b), 0), found)
+        y = Fraction(before.get((b, a), 0), found)
+        if x != bx or y != by:
+            raise CertificateError(f"pair {problem.items[a]}, {problem.items[b]}: "
+                                   f"shares differ from {engine}")
     res.checks.append(f"every share recounted from {engine} ({found} answers)")
 
 
@@ -431,7 +337,7 @@ def _infeasible(problem: Problem, res: SettledResult, solver, time_limit) -> Set
     from satorder.pipeline.solve import solve
 
     hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
-    ans = solve(hard, solver=solver, time_limit=time_limit)
+    ans = res.answer or solve(hard, solver=solver, time_limit=time_limit)
     if ans.status == FEASIBLE:
         raise CertificateError(f"the {res.method} finds no answer, but the solver found a "
                                "certified one")
