@@ -53,6 +53,7 @@ class SampleResult:
     kappa: float | None = None
     answer: Any = None  # infeasible problems: the verified answer of solve, with its core
     verified: bool = False
+    notes: list[str] = field(default_factory=list)
     stats: dict[str, Any] = field(default_factory=dict)
 
     def __post_init__(self) -> None:
@@ -70,6 +71,8 @@ class SampleResult:
             for key in ("conflict", "core"):
                 if key in sub:
                     doc[key] = sub[key]
+        if self.notes:
+            doc["notes"] = self.notes
         doc["verified"] = self.verified
         doc["stats"] = self.stats
         return doc
@@ -134,19 +137,27 @@ def _by_listing(problem, k, rng, seed, limit, deadline) -> SampleResult | None:
 
 
 def _by_unigen(problem, k, seed, deadline, solver) -> SampleResult:
-    from satorder.sat.answer_formula import AnswerFormula
+    from satorder.sat.answer_formula import MAX_CLAUSES, AnswerFormula, transitivity_clauses
     from satorder.sat.sampling import KAPPA, almost_uniform_samples
 
-    formula = AnswerFormula(problem)
     res = SampleResult(problem, UNKNOWN, UNIGEN, seed, uniform="almost", kappa=KAPPA)
+    size = transitivity_clauses(problem)
+    if size > MAX_CLAUSES:
+        res.notes.append(f"too many answers to list, and too large for UniGen (about "
+                         f"{size:,} transitivity clauses, at most {MAX_CLAUSES:,})")
+        return res
+    formula = AnswerFormula(problem)
     feasible = False if formula.unsat else _feasible(problem, deadline, solver)
-    if feasible is None:  # the time limit came first
+    if feasible is None:
+        res.notes.append("the time limit came before the check that an answer exists")
         return res
     if not feasible:
         res.status, res.answers = INFEASIBLE, 0
         return res
     drawn = almost_uniform_samples(formula, k, seed=seed + 1, deadline=deadline)
-    if drawn is not None:
+    if drawn is None:
+        res.notes.append("the time limit came before the samples were drawn")
+    else:
         res.status, res.orders = FEASIBLE, drawn
     return res
 

@@ -23,6 +23,26 @@ from __future__ import annotations
 from satorder.model.problem import Problem
 from satorder.sat.encoding import Encoding
 
+MAX_CLAUSES = 5_000_000  # transitivity clauses past which no formula is built for counters
+
+
+def transitivity_clauses(problem: Problem) -> int:
+    """About how many transitivity clauses :class:`AnswerFormula` would write: one per pair of
+    items that may be ordered with a middle item, summed over the middle items.
+
+    >>> transitivity_clauses(Problem.from_lists(items=["a", "b", "c"], incomparable=[]))
+    12
+    """
+    n = problem.n
+    total = 0
+    for b in range(n):
+        if problem.incomparable is None:
+            d = len(problem.adj[b])
+        else:
+            d = n - 1 - len(problem.incomparable[b] - problem.adj[b])
+        total += d * d
+    return total
+
 
 class AnswerFormula:
     """``clauses`` over variables ``1 … nv``; ``projection`` the order variables that occur in

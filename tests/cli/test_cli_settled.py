@@ -137,3 +137,22 @@ def test_contradicting_problem_is_infeasible_with_its_core(tmp_path, capsys):
     assert main(["settled", str(clash)]) == 0
     text = capsys.readouterr().out
     assert "fixed: ash-layer must come before floor" in text and "cannot all hold" in text
+
+
+def test_too_large_for_the_counter_is_said_not_attempted(dig, monkeypatch, capsys):
+    # a formula past the size limit is never built: settled and sample say so (status unknown,
+    # exit 3), count lists on as the enumeration method does, or refuses --method approximate
+    import satorder.sat.answer_formula as formula
+
+    monkeypatch.setattr(formula, "MAX_CLAUSES", 1)
+    assert main(["settled", dig, "--method", "approximate", "--json"]) == 3
+    doc = json.loads(capsys.readouterr().out)
+    assert doc["status"] == "unknown" and "too large for approximate counting" in doc["notes"][0]
+    assert main(["sample", dig, "-k", "2", "--method", "unigen"]) == 3
+    end = json.loads(capsys.readouterr().out)
+    assert end["status"] == "unknown" and "too large for UniGen" in end["notes"][0]
+    assert main(["count", dig, "--json"]) == 0
+    doc = json.loads(capsys.readouterr().out)
+    assert doc["method"] == "enumeration" and doc["exact"] and doc["count"] == 588
+    assert main(["count", dig, "--method", "approximate"]) == 2
+    assert "too large for approximate counting" in capsys.readouterr().err
