@@ -156,3 +156,19 @@ def test_too_large_for_the_counter_is_said_not_attempted(dig, monkeypatch, capsy
     assert doc["method"] == "enumeration" and doc["exact"] and doc["count"] == 588
     assert main(["count", dig, "--method", "approximate"]) == 2
     assert "too large for approximate counting" in capsys.readouterr().err
+
+
+def test_readme_worked_example_is_what_the_command_prints(tmp_path, capsys):
+    # the README's worked example (an invented trench) is pasted output: it must stay true
+    root = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
+    text = open(os.path.join(root, "README.md"), encoding="utf-8").read()
+    section = text.split("## What the evidence settles", 1)[1].split("\n## ", 1)[0]
+    blocks = section.split("```")
+    problem = next(b for b in blocks if b.startswith("json\n"))[len("json\n"):]
+    (tmp_path / "fen.json").write_text(problem)
+    for block in blocks:
+        if block.startswith("\n$ satorder settled fen.json"):
+            command, _, shown = block[1:].partition("\n")
+            argv = command[len("$ satorder "):].replace("fen.json", str(tmp_path / "fen.json"))
+            assert main(argv.split()) == 0
+            assert capsys.readouterr().out == shown, command
