@@ -86,12 +86,13 @@ def shares(con: Constrained, arc_free_nodes: bool = True) -> Iterator[ShareBlock
         if not arc_free_nodes and not choice.arcs:
             continue
         items = [sorted(c.items) for c in choice.node.children]
-        rest = {}  # 1 - p, computed once per share
+        rest = {}  # 1 - p and whether p >= 1 - p, computed once per share
         for i, j, p in (_series(choice) if choice.kind == SERIES else _prime(choice)):
-            q = rest.get(p)
-            if q is None:
-                q = rest[p] = 1 - p
-            yield (ShareBlock(items[i], items[j], p, q) if p >= q else
+            known = rest.get(p)
+            if known is None:
+                known = rest[p] = (1 - p, p >= 1 - p)
+            q, first = known
+            yield (ShareBlock(items[i], items[j], p, q) if first else
                    ShareBlock(items[j], items[i], q, p))
 
 
