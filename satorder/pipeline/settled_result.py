@@ -167,7 +167,9 @@ class SettledResult:
         parts = []
         tails: dict[tuple, str] = {}  # the text after the pair, once per distinct shares
         for blk in self.blocks:
-            key = (blk.before, blk.after, blk.unordered, blk.exact_settled)
+            # blocks of one node share their fraction objects: the key needs no hashing of
+            # fractions (the blocks keep the objects alive, so an id stands for one value)
+            key = (id(blk.before), id(blk.after), id(blk.unordered), blk.exact_settled)
             tail = tails.get(key)
             if tail is None:
                 tail = tails[key] = (
