@@ -44,7 +44,7 @@ def add_parser(sub):
     options.add_time_limit(p, extra="status unknown when the shares are not known by then; "
                                      "with --why default 30")
     options.add_solver(p)
-    options.add_seed(p, default=0, extra="the answers drawn for checks and approximate shares")
+    options.add_seed(p, default=0, extra="the approximate method's hashes and samples")
     options.add_report(p, "all pairs; not with --why")
     return p
 
