@@ -92,10 +92,7 @@ class SettledWhy:
             doc["derivation"] = (None if self.steps is None
                                  else derivation.to_json(self.steps, self.core, sn))
         if self.answer is not None and self.status == INFEASIBLE:
-            sub = self.answer.to_json()
-            for key in ("conflict", "core"):
-                if key in sub:
-                    doc[key] = sub[key]
+            doc.update(self.answer.refutation_json())
         if self.witnesses:
             doc["witnesses"] = [
                 {"relation": rel, "order": [[names[x], names[y]] for x, s in enumerate(succ)

@@ -163,16 +163,15 @@ def _count_open(problem, limit, solver, time_limit, on_progress, seed, listing) 
     approximately; a problem too large for the counter's formula is listed to the end (or to
     ``limit``, the time limit, Ctrl-C) as by the enumeration method."""
     from satorder.sat import runner
-    from satorder.sat.answer_formula import MAX_CLAUSES, transitivity_clauses
+    from satorder.sat.answer_formula import too_large
 
-    size = transitivity_clauses(problem)
-    if size > MAX_CLAUSES:
+    size = too_large(problem)
+    if size:
         if not listing:
-            raise InputError(f"{problem.source}: too large for approximate counting (about "
-                             f"{size:,} transitivity clauses, at most {MAX_CLAUSES:,}); use "
-                             "--method enumeration with --limit or --time-limit")
+            raise InputError(f"{problem.source}: too large for approximate counting ({size}); "
+                             "use --method enumeration with --limit or --time-limit")
         res = _count_by_enumeration(problem, limit, solver, time_limit, on_progress)
-        res.stats["approximate"] = f"not tried: about {size:,} transitivity clauses"
+        res.stats["approximate"] = f"not tried: {size}"
         return res
 
     deadline = runner.deadline_after(time_limit)

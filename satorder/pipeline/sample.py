@@ -67,10 +67,7 @@ class SampleResult:
         if self.kappa is not None:
             doc["kappa"] = self.kappa
         if self.answer is not None and self.status == INFEASIBLE:
-            sub = self.answer.to_json()
-            for key in ("conflict", "core"):
-                if key in sub:
-                    doc[key] = sub[key]
+            doc.update(self.answer.refutation_json())
         if self.notes:
             doc["notes"] = self.notes
         doc["verified"] = self.verified
@@ -137,14 +134,13 @@ def _by_listing(problem, k, rng, seed, limit, deadline) -> SampleResult | None:
 
 
 def _by_unigen(problem, k, seed, deadline, solver) -> SampleResult:
-    from satorder.sat.answer_formula import MAX_CLAUSES, AnswerFormula, transitivity_clauses
+    from satorder.sat.answer_formula import AnswerFormula, too_large
     from satorder.sat.sampling import KAPPA, almost_uniform_samples
 
     res = SampleResult(problem, UNKNOWN, UNIGEN, seed, uniform="almost", kappa=KAPPA)
-    size = transitivity_clauses(problem)
-    if size > MAX_CLAUSES:
-        res.notes.append(f"too many answers to list, and too large for UniGen (about "
-                         f"{size:,} transitivity clauses, at most {MAX_CLAUSES:,})")
+    size = too_large(problem)
+    if size:
+        res.notes.append(f"too many answers to list, and too large for UniGen ({size})")
         return res
     formula = AnswerFormula(problem)
     feasible = False if formula.unsat else _feasible(problem, deadline, solver)

@@ -196,7 +196,7 @@ def _by_listing(problem: Problem, limit: int, deadline: float | None) -> Settled
 
 
 def _by_approximation(problem, samples, epsilon, delta, seed, solver, deadline):
-    from satorder.sat.answer_formula import MAX_CLAUSES, AnswerFormula, transitivity_clauses
+    from satorder.sat.answer_formula import AnswerFormula, too_large
     from satorder.sat.modelcount import DELTA, EPSILON, approximate_count
     from satorder.sat.sampling import almost_uniform_samples
 
@@ -204,10 +204,10 @@ def _by_approximation(problem, samples, epsilon, delta, seed, solver, deadline):
     delta = DELTA if delta is None else delta
     t = time.perf_counter()
     res = SettledResult(problem, UNKNOWN, APPROXIMATE, None, False, epsilon=epsilon, delta=delta)
-    size = transitivity_clauses(problem)
-    if size > MAX_CLAUSES:
+    size = too_large(problem)
+    if size:
         res.notes.append(f"too many answers to list, and too large for approximate counting "
-                         f"(about {size:,} transitivity clauses, at most {MAX_CLAUSES:,})")
+                         f"({size})")
         return res
     formula = AnswerFormula(problem)
     est = approximate_count(formula, epsilon, delta, seed=seed + 1, deadline=deadline)

@@ -135,10 +135,7 @@ class SettledResult:
     def _tail(self) -> dict[str, Any]:
         doc: dict[str, Any] = {**self.counts()}
         if self.answer is not None and self.status == INFEASIBLE:
-            sub = self.answer.to_json()
-            for key in ("conflict", "core"):
-                if key in sub:
-                    doc[key] = sub[key]
+            doc.update(self.answer.refutation_json())
         if self.notes:
             doc["notes"] = self.notes
         doc["item_count"] = self.problem.n

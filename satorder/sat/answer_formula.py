@@ -44,6 +44,15 @@ def transitivity_clauses(problem: Problem) -> int:
     return total
 
 
+def too_large(problem: Problem) -> str | None:
+    """Why no :class:`AnswerFormula` is built for ``problem`` (its size, in words), or None
+    when it is within :data:`MAX_CLAUSES`."""
+    size = transitivity_clauses(problem)
+    if size <= MAX_CLAUSES:
+        return None
+    return f"about {size:,} transitivity clauses, at most {MAX_CLAUSES:,}"
+
+
 class AnswerFormula:
     """``clauses`` over variables ``1 … nv``; ``projection`` the order variables that occur in
     some clause and ``free`` those that occur in none (each doubles the answers: counters and
