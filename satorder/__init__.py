@@ -28,7 +28,10 @@ _EXPORTS = {
     "Problem": "satorder.model.problem",
     "problem_from_dict": "satorder.io.readers",
     "read_problem": "satorder.io.readers",
+    "sample_answers": "satorder.pipeline.sample",
+    "settled": "satorder.pipeline.settled",
     "solve": "satorder.pipeline.solve",
+    "why_settled": "satorder.explanation.settled_why",
 }
 __all__ = list(_EXPORTS)
 

@@ -130,6 +130,20 @@ def check_decomposition(adj: list[set[int]], tree, budget: int = 30_000_000) -> 
     return total
 
 
+def check_tree_count(adj: list[set[int]], tree, count: int, arcs: bool) -> str | None:
+    """Check ``tree`` (:func:`check_decomposition`) and, for a problem without fixed or
+    forbidden ``arcs``, that the count it implies is ``count``; returns what was checked, in
+    words, or None when the tree is too large to check.  Raises :class:`CertificateError`."""
+    implied = check_decomposition(adj, tree)
+    if implied is None:
+        return None
+    if not arcs and implied != count:
+        raise CertificateError(f"the checked decomposition implies {implied} answers, "
+                               f"not {count}")
+    return ("decomposition tree checked: every child a module, node kinds, prime quotients "
+            "with one implication class")
+
+
 def _colour_classes(adj: list[set[int]], budget: int) -> tuple[int, int] | None:
     """The number of colour classes of the graph ``adj`` (0 when it is not a comparability
     graph) and the budget left, or None once the work passes ``budget``.

@@ -1,9 +1,10 @@
-"""``satorder count FILE``: the exact number of answers (orders meeting every requirement).
+"""``satorder count FILE``: the number of answers (orders meeting every requirement).
 
 Problems with open pairs are counted by listing every answer, which is exponential work: before
-it starts, standard error says how many answers there can be at most.  The time limit or Ctrl-C
-stops the listing with a lower bound (``"exact": false``, ``"stopped": "time-limit"`` or
-``"interrupted"``; exit status 3 or 130).
+it starts, standard error says how many answers there can be at most.  Past 10,000 listed
+answers the count turns approximate (ApproxMC, with ε and δ stated; ``--method enumeration``
+insists on listing).  The time limit or Ctrl-C stops the listing with a lower bound
+(``"exact": false``, ``"stopped": "time-limit"`` or ``"interrupted"``; exit status 3 or 130).
 """
 
 from __future__ import annotations
@@ -24,7 +25,15 @@ from satorder.cli.common import (
     write_report,
 )
 from satorder.io.files import atomic_write
-from satorder.pipeline.count import DECOMPOSITION, ENUMERATION, check_count, count_answers
+from satorder.pipeline.count import (
+    APPROXIMATE,
+    DECOMPOSITION,
+    ENUMERATION,
+    LISTING_THRESHOLD,
+    METHODS,
+    check_count,
+    count_answers,
+)
 from satorder.pipeline.orders import INTERRUPTED, LIMIT, TIME_LIMIT
 
 TREE_LIMIT = 60  # items up to which the decomposition tree is drawn on screen
@@ -64,14 +73,17 @@ def add_parser(sub):
     p.add_argument("file", help="problem file: JSON, edge list (a b per line) or graph6")
     options.add_json(p)
     options.add_out(p, "the JSON object --json prints, besides the usual output")
-    p.add_argument("--method", choices=("auto", DECOMPOSITION, ENUMERATION), default="auto",
+    p.add_argument("--method", choices=METHODS, default="auto",
                    help="modular decomposition (problems without open pairs), enumeration by "
-                        "SAT with blocking clauses, or auto (default)")
+                        "SAT with blocking clauses (every answer, however many), approximate "
+                        "(ApproxMC), or auto (default: enumeration that turns approximate past "
+                        f"{LISTING_THRESHOLD:,} answers)")
     p.add_argument("--limit", type=int, default=None, metavar="N",
                    help="enumeration stops after N answers and reports a lower bound")
     options.add_time_limit(p, extra="an enumeration reports a lower bound; the check that an "
                                      "answer exists gets as long again")
     options.add_solver(p)
+    options.add_seed(p, default=0, extra="ApproxMC's random hashes")
     p.add_argument("--draw", metavar="FILE.svg",
                    help=f"draw the modular decomposition tree (up to {DRAW_LIMIT} items)")
     options.add_report(p)
@@ -99,7 +111,9 @@ def run(args) -> int:
 
         res = count_answers(problem, limit=args.limit, solver=args.solver,
                             time_limit=args.time_limit, method=args.method,
-                            on_progress=progress, on_enumeration=_warn_exponential)
+                            on_progress=progress,
+                            on_enumeration=lambda bound: _warn_exponential(bound, args.method),
+                            seed=args.seed)
         if res.reason == INTERRUPTED:  # stop now: every order counted was certified already
             res.stats["checks"] = ["every order counted was certified; the cross-check was "
                                    "skipped after Ctrl-C"]
@@ -136,6 +150,9 @@ def run(args) -> int:
                  for r in clash]
         out.print(f"[bold]0[/] answers (exact): two requirements clash on one pair — "
                   f"{words[0]}; {words[1]}. Run satorder explain {args.file} for repairs.")
+    elif res.method == APPROXIMATE:
+        out.print(f"[bold]about {text}[/] answers (approximate model counting: {doc['guarantee']}; "
+                  f"{doc['lower_bound']:,} certified answers listed first).")
     elif res.exact:
         out.print(f"[bold]{text}[/] answers ({how[res.method]}, exact).")
     else:
@@ -161,9 +178,15 @@ def run(args) -> int:
 EXPONENTIAL_AT = 4.0  # log10 of the most answers from which the listing's cost is announced
 
 
-def _warn_exponential(log10_bound: float) -> None:
+def _warn_exponential(log10_bound: float, method: str) -> None:
     """Say on standard error, before listing starts, how many answers there can be."""
     if log10_bound < EXPONENTIAL_AT:
+        return
+    if method == "auto":
+        err.print(f"satorder count: up to ~10^{log10_bound:.0f} answers are possible (every "
+                  "pair's possible states multiplied); they are listed one by one up to "
+                  f"{LISTING_THRESHOLD:,} and counted approximately beyond (ApproxMC; "
+                  "--method enumeration lists every one)", markup=False)
         return
     err.print(f"satorder count: listing the answers one by one, exponential work: up to "
               f"~10^{log10_bound:.0f} answers are possible (every pair's possible states "

@@ -30,6 +30,9 @@ COMMANDS = {
     "cnf": ("cnf", "write the problem as DIMACS CNF with named variables"),
     "count": ("count", "count the answers (any size)"),
     "orders": ("orders", "list answers one per line (JSON lines), each certified"),
+    "settled": ("settled", "which pairs every answer orders alike, and the shares of the free "
+                           "ones"),
+    "sample": ("sample", "draw answers uniformly at random (JSON lines), each certified"),
 }
 PIPE_CLOSED = 141  # 128 + SIGPIPE, what a shell reports for a writer whose reader went away
 

@@ -125,6 +125,12 @@ class Answer:
         return (HAVE_NUMBA and getattr(self.succ, "is_compact", False)
                 and self.succ.total() >= order_views.ARRAYS_FROM)
 
+    def refutation_json(self) -> dict[str, Any]:
+        """The fields of :meth:`to_json` that say why an infeasible answer has no order:
+        ``conflict`` (a forcing chain) and ``core``, those it has (none when feasible)."""
+        doc = self.to_json(include_order=False)
+        return {key: doc[key] for key in ("conflict", "core") if key in doc}
+
     def to_json(self, include_order: bool = True) -> dict[str, Any]:
         """The machine-readable answer (fields fixed by the CLI contract, extras welcome).
         ``include_order=False`` leaves out ``order`` and its views (``levels``, ``covering``,

@@ -1,6 +1,6 @@
 """The exact number of answers of a problem.
 
-Two methods, and the result says which one was used:
+Three methods, and the result says which one was used:
 
 * ``"modular-decomposition"`` — for problems without open pairs (every pair is either
   comparable or must stay unordered), the answers are the transitive orientations of the
@@ -14,14 +14,19 @@ Two methods, and the result says which one was used:
   ancestor) and constrains only that node's choice: a series node then counts the linear
   orders of its children that respect its arcs (k!/r! times the linear extensions of the r
   children that carry arcs, by dynamic programming over down-sets), a prime node counts which
-  of its two orientations agree with its arcs.  Python integers keep any count exact
-  (K_100 has 100! answers).
+  of its two orientations agree with its arcs (:mod:`satorder.graph.node_choices`).  Python
+  integers keep any count exact (K_100 has 100! answers).
 * ``"enumeration"`` — problems with open pairs: every answer is produced by the SAT engine with
   blocking clauses (:mod:`satorder.sat.enumeration`) and certified
   (:mod:`satorder.pipeline.orders`); with ``limit`` or
   ``time_limit`` reached first, or Ctrl-C, the count is a lower bound (``exact`` is False,
   ``reason`` says which).  Listing is exponential work: :func:`enumeration_bound` gives, before
   it starts, the most answers the problem can have.
+* ``"approximate"`` — problems with open pairs whose listing passes
+  :data:`LISTING_THRESHOLD` answers (method ``auto``), or on request: ApproxMC estimates the
+  number of answers within a factor ``1 + ε`` with probability at least ``1 − δ``
+  (:mod:`satorder.sat.modelcount`); ``exact`` is False, ``epsilon`` and ``delta`` are stated,
+  and the certified answers listed before the switch are a lower bound.
 
 Preferences rank answers but rule none out, so they do not change the count.  Requirements
 that clash on one pair (:meth:`~satorder.model.problem.Problem.contradictions`) admit no answer:
@@ -40,29 +45,27 @@ from __future__ import annotations
 import math
 import time
 from dataclasses import dataclass, field
-from math import factorial
 from typing import Any
 
-from satorder.certify.decomposition import check_decomposition
+from satorder.certify.decomposition import check_tree_count
 from satorder.errors import CertificateError, InputError
-from satorder.graph.arcs import place_arcs, required_arcs
+from satorder.graph.arcs import required_arcs
 from satorder.graph.forcing import transitive_orientation
-from satorder.graph.modular import (
-    LEAF,
-    PARALLEL,
-    PRIME,
-    SERIES,
-    ModuleNode,
-    modular_decomposition,
-    quotient,
-)
+from satorder.graph.node_choices import TooManyStates, constrain
 from satorder.model.problem import Problem
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
-from satorder.pipeline.orders import INTERRUPTED, EnumerationEnd, certified_orders
+from satorder.pipeline.orders import (
+    INTERRUPTED,
+    LIMIT,
+    TIME_LIMIT,
+    EnumerationEnd,
+    certified_orders,
+)
 from satorder.pipeline.solve import solve
 
-DECOMPOSITION, ENUMERATION = "modular-decomposition", "enumeration"
-MAX_DOWNSETS = 2_000_000  # beyond this many states a series node's arcs are too many to count
+DECOMPOSITION, ENUMERATION, APPROXIMATE = "modular-decomposition", "enumeration", "approximate"
+METHODS = ("auto", DECOMPOSITION, ENUMERATION, APPROXIMATE)
+LISTING_THRESHOLD = 10_000  # method auto: past this many listed answers, count approximately
 
 
 @dataclass
@@ -84,7 +87,12 @@ class CountResult:
             "exact": self.exact,
             "method": self.method,
         }
-        if not self.exact:
+        if self.method == APPROXIMATE:
+            doc["epsilon"], doc["delta"] = self.stats["epsilon"], self.stats["delta"]
+            doc["guarantee"] = (f"within a factor {1 + doc['epsilon']:g} of the true count with "
+                                f"probability at least {1 - doc['delta']:g}")
+            doc["lower_bound"] = self.stats.get("enumerated", 0)
+        elif not self.exact:
             doc["lower_bound"] = self.count
             doc["stopped"] = self.reason
         if self.problem.prefer:
@@ -96,32 +104,40 @@ class CountResult:
         return doc
 
 
-class TooManyStates(RuntimeError):
-    """A series node carries too many arcs for the down-set count."""
-
-
 def count_answers(problem: Problem, limit: int | None = None, solver: str | None = None,
                   time_limit: float | None = None, method: str = "auto",
-                  on_progress=None, on_enumeration=None) -> CountResult:
-    """Count the answers of ``problem``; see the module docstring for the two methods.
+                  on_progress=None, on_enumeration=None, seed: int = 0) -> CountResult:
+    """Count the answers of ``problem``; see the module docstring for the methods.
 
-    ``method``: ``"auto"`` (decomposition when there are no open pairs), ``DECOMPOSITION`` or
-    ``ENUMERATION``.  ``limit``/``time_limit`` bound the enumeration only.  ``on_progress(k)`` is
+    ``method``: ``"auto"`` (decomposition when there are no open pairs, otherwise enumeration
+    that turns approximate past :data:`LISTING_THRESHOLD` answers), ``DECOMPOSITION``,
+    ``ENUMERATION`` (list every answer however many) or ``APPROXIMATE``.  ``limit``/``time_limit``
+    bound the enumeration (the time limit also the approximate count).  ``on_progress(k)`` is
     called as enumerated answers arrive, ``on_enumeration(bound)`` once before listing starts
     (``bound`` from :func:`enumeration_bound`).  Ctrl-C during the listing ends it: the result
-    is then a lower bound with ``reason`` ``"interrupted"``.
+    is then a lower bound with ``reason`` ``"interrupted"``.  ``seed`` fixes ApproxMC's random
+    hashes.
     """
-    if method not in ("auto", DECOMPOSITION, ENUMERATION):
+    if method not in METHODS:
         raise ValueError(f"unknown counting method {method!r}")
     t0 = time.perf_counter()
-    if method == "auto":
-        method = ENUMERATION if problem.has_open_pairs else DECOMPOSITION
     clash = problem.contradictions()
     if clash:  # two requirements clash on one pair: no answer at all
         names = problem.items
+        if method == "auto":
+            method = ENUMERATION if problem.has_open_pairs else DECOMPOSITION
         return CountResult(problem, 0, True, method, stats={
             "clash": [r.to_json(names) for r in clash[0]],
             "seconds": round(time.perf_counter() - t0, 6)})
+    if method == APPROXIMATE or (method == "auto" and problem.has_open_pairs):
+        if on_enumeration is not None and method == "auto":
+            on_enumeration(enumeration_bound(problem))
+        res = _count_open(problem, limit, solver, time_limit, on_progress, seed,
+                          listing=method == "auto")
+        res.stats["seconds"] = round(time.perf_counter() - t0, 6)
+        return res
+    if method == "auto":
+        method = DECOMPOSITION
     if method == DECOMPOSITION:
         if problem.has_open_pairs:
             raise InputError(f"{problem.source}: has open pairs, which the decomposition "
@@ -142,6 +158,62 @@ def count_answers(problem: Problem, limit: int | None = None, solver: str | None
 
 
 # ------------------------------------------------------------------------ enumeration
+def _count_open(problem, limit, solver, time_limit, on_progress, seed, listing) -> CountResult:
+    """List up to :data:`LISTING_THRESHOLD` answers (when ``listing``), then count
+    approximately; a problem too large for the counter's formula is listed to the end (or to
+    ``limit``, the time limit, Ctrl-C) as by the enumeration method."""
+    from satorder.sat import runner
+    from satorder.sat.answer_formula import too_large
+
+    size = too_large(problem)
+    if size:
+        if not listing:
+            raise InputError(f"{problem.source}: too large for approximate counting ({size}); "
+                             "use --method enumeration with --limit or --time-limit")
+        res = _count_by_enumeration(problem, limit, solver, time_limit, on_progress)
+        res.stats["approximate"] = f"not tried: {size}"
+        return res
+
+    deadline = runner.deadline_after(time_limit)
+    listed = None
+    if listing:
+        cap = LISTING_THRESHOLD if limit is None else min(limit, LISTING_THRESHOLD)
+        listed = _count_by_enumeration(problem, cap, solver, time_limit, on_progress)
+        if listed.exact or listed.reason != LIMIT or cap == limit:
+            return listed
+    try:
+        res = _count_approximately(problem, seed, deadline)
+    except KeyboardInterrupt:  # Ctrl-C while counting: what was listed is a lower bound
+        res, reason = None, INTERRUPTED
+    else:
+        reason = TIME_LIMIT
+    if res is None:  # the time limit or Ctrl-C came first
+        if listed is not None:
+            listed.reason = reason
+            return listed
+        return CountResult(problem, 0, False, ENUMERATION, reason=reason,
+                           stats={"enumerated": 0})
+    if listed is not None:
+        res.stats["enumerated"] = listed.count
+        res.count = max(res.count, listed.count)
+    return res
+
+
+def _count_approximately(problem, seed, deadline) -> CountResult | None:
+    from satorder.sat.answer_formula import AnswerFormula
+    from satorder.sat.modelcount import DELTA, EPSILON, approximate_count
+
+    hard = problem.with_requirements(prefer=[]) if problem.prefer else problem
+    est = approximate_count(AnswerFormula(hard), EPSILON, DELTA, seed=seed + 1,
+                            deadline=deadline)
+    if est.estimate is None:
+        return None
+    stats = {"epsilon": est.epsilon, "delta": est.delta, "cells": est.cells,
+             "hashes": est.hashes, "approxmc_seconds": est.seconds, "enumerated": 0}
+    return CountResult(problem, est.estimate, est.exact and est.estimate == 0, APPROXIMATE,
+                       stats=stats)
+
+
 def enumeration_bound(problem: Problem) -> float:
     """log10 of the most answers ``problem`` can have, from the states each pair may take in an
     answer (common practice, a plain product): a comparable pair is ordered one of 2 ways (1
@@ -193,86 +265,19 @@ def _count_by_enumeration(problem, limit, solver, time_limit, on_progress) -> Co
 
 # ------------------------------------------------------------------------ decomposition
 def _count_by_decomposition(problem: Problem) -> CountResult:
-    adj = problem.adj
+    """The product formula of :mod:`satorder.graph.node_choices` (see the module docstring)."""
     stats: dict[str, Any] = {}
-    arcs = required_arcs(problem)
-    if arcs is None:
+    if required_arcs(problem) is None:
         return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
     if problem.n == 0:
         return CountResult(problem, 1, True, DECOMPOSITION, stats=stats)
-    if not transitive_orientation(adj).orientable:
+    if not transitive_orientation(problem.adj).orientable:
         stats["comparability_graph"] = False
         return CountResult(problem, 0, True, DECOMPOSITION, stats=stats)
-    tree = modular_decomposition(adj)
-    kinds = {SERIES: 0, PARALLEL: 0, PRIME: 0}
-    for node in tree.nodes():
-        if node.kind != LEAF:
-            kinds[node.kind] += 1
-    stats["nodes"] = kinds
-    result = CountResult(problem, 0, True, DECOMPOSITION, stats=stats, tree=tree)
-    placed = {key: [(i, j) for i, j, _ in found]
-              for key, found in place_arcs(tree, arcs, problem.n).items()}
-    stats["constrained_nodes"] = len(placed)
-    total = 1
-    for node in tree.nodes():
-        if node.kind == SERIES:
-            total *= _series_count(len(node.children), placed.get(id(node), ()))
-        elif node.kind == PRIME:
-            total *= _prime_count(adj, node, placed.get(id(node), ()))
-        if total == 0:
-            break
-    result.count = total
-    return result
-
-
-def _series_count(k: int, arcs) -> int:
-    """Linear orders of k children in which each arc (i, j) puts child i before child j."""
-    if not arcs:
-        return factorial(k)
-    involved = sorted({i for arc in arcs for i in arc})
-    r = len(involved)
-    pos = {c: t for t, c in enumerate(involved)}
-    before = [0] * r  # bitmask of the involved children that must come earlier
-    for i, j in arcs:
-        before[pos[j]] |= 1 << pos[i]
-    return factorial(k) // factorial(r) * _linear_extensions(before)
-
-
-def _linear_extensions(before: list[int]) -> int:
-    """Linear extensions of a relation on r elements (``before[j]``: elements that must precede
-    j), by dynamic programming over down-sets; 0 if the relation has a cycle."""
-    r = len(before)
-    full = (1 << r) - 1
-    ways = {0: 1}
-    for _ in range(r):
-        nxt: dict[int, int] = {}
-        for mask, w in ways.items():
-            for j in range(r):
-                bit = 1 << j
-                if not mask & bit and before[j] & ~mask == 0:
-                    m2 = mask | bit
-                    nxt[m2] = nxt.get(m2, 0) + w
-        if len(nxt) > MAX_DOWNSETS:
-            raise TooManyStates(f"{len(nxt)} down-sets")
-        ways = nxt
-        if not ways:
-            return 0
-    return ways.get(full, 0)
-
-
-def _prime_count(adj, node: ModuleNode, arcs) -> int:
-    """How many of the two transitive orientations of a prime node's quotient put each arc
-    (i, j) (children indices) as i before j."""
-    if not arcs:
-        return 2
-    q = quotient(adj, node)
-    res = transitive_orientation(q)
-    if not res.orientable:  # cannot happen when the whole graph is a comparability graph
-        return 0
-    up = {(a, b) for a, b in res.arcs()}
-    forward = all((i, j) in up for i, j in arcs)
-    backward = all((j, i) in up for i, j in arcs)
-    return int(forward) + int(backward)
+    con = constrain(problem, orient_primes=False)
+    stats["nodes"] = con.kinds
+    stats["constrained_nodes"] = sum(1 for c in con.nodes if c.arcs)
+    return CountResult(problem, con.count, True, DECOMPOSITION, stats=stats, tree=con.tree)
 
 
 # ------------------------------------------------------------------------ alongside an answer
@@ -320,13 +325,10 @@ def check_count(result: CountResult, recount_up_to: int = 64, recount_items: int
             raise CertificateError(f"count is {result.count} but the problem is infeasible")
         checks.append("the solver certified that no answer exists")
     if result.tree is not None:
-        implied = check_decomposition(problem.adj, result.tree)
-        if implied is not None:
-            if not (problem.fixed or problem.forbidden) and implied != result.count:
-                raise CertificateError(f"the checked decomposition implies {implied} answers, "
-                                       f"the count says {result.count}")
-            checks.append("decomposition tree checked: every child a module, node kinds, prime "
-                          "quotients with one implication class")
+        done = check_tree_count(problem.adj, result.tree, result.count,
+                                bool(problem.fixed or problem.forbidden))
+        if done is not None:
+            checks.append(done)
     if result.method == DECOMPOSITION and 0 < result.count <= recount_up_to and \
             problem.n <= recount_items:
         again = _count_by_enumeration(hard, result.count + 1, solver, None, None)

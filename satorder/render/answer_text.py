@@ -97,24 +97,30 @@ def print_answer(ans: Answer, console: Console, hint_file: str | None = None,
         if admitted:
             console.print(admitted)
     elif ans.status == INFEASIBLE:
-        if ans.core is not None and ans.stats.get("minimal_core"):
-            from satorder.render.explanation_text import print_core
-
-            console.print(f"No order exists. These {len(ans.core)} requirements cannot all hold "
-                          "(a minimal core: drop any one and the rest can be met):")
-            print_core(ans.core, names, console, limit=20)
-            if ans.chain is not None:
-                _print_chain(ans.chain, names, console)
-        elif ans.chain is not None:
-            console.print("No order exists.")
-            _print_chain(ans.chain, names, console)
-        elif ans.core is not None:
-            from satorder.render.explanation_text import print_core
-
-            console.print("No order exists. These requirements cannot all hold:")
-            print_core(ans.core, names, console, limit=MAX_ROWS)
-        if hint_file:
-            console.print(f"Run [bold]satorder explain {hint_file}[/] for a minimal core and a "
-                          "step-by-step derivation.")
+        print_no_answer(ans, names, console, hint_file)
     else:
         console.print("No answer within the time limit; try a longer --time-limit.")
+
+
+def print_no_answer(ans, names: list[str], console: Console, hint_file: str | None = None) -> None:
+    """Why an infeasible answer has no order: its core (numbered from 1; "minimal" when
+    shrunk) or forcing chain, and where to read more."""
+    if ans.core is not None and ans.stats.get("minimal_core"):
+        from satorder.render.explanation_text import print_core
+
+        console.print(f"No order exists. These {len(ans.core)} requirements cannot all hold "
+                      "(a minimal core: drop any one and the rest can be met):")
+        print_core(ans.core, names, console, limit=20)
+        if ans.chain is not None:
+            _print_chain(ans.chain, names, console)
+    elif ans.chain is not None:
+        console.print("No order exists.")
+        _print_chain(ans.chain, names, console)
+    elif ans.core is not None:
+        from satorder.render.explanation_text import print_core
+
+        console.print("No order exists. These requirements cannot all hold:")
+        print_core(ans.core, names, console, limit=MAX_ROWS)
+    if hint_file:
+        console.print(f"Run [bold]satorder explain {hint_file}[/] for a minimal core and a "
+                      "step-by-step derivation.")

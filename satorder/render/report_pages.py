@@ -190,12 +190,16 @@ def explain_report(expl, command: str | None = None) -> Report:
 
 def count_report(res, command: str | None = None) -> Report:
     """The page of ``satorder count``."""
-    from satorder.pipeline.count import DECOMPOSITION
+    from satorder.pipeline.count import APPROXIMATE, DECOMPOSITION
 
     p = res.problem
     status = FEASIBLE if res.count > 0 else INFEASIBLE if res.exact else UNKNOWN
-    how = "modular decomposition" if res.method == DECOMPOSITION else "SAT enumeration"
-    count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped: {res.reason})")
+    how = {DECOMPOSITION: "modular decomposition", APPROXIMATE: "approximate model counting "
+           "(ApproxMC)"}.get(res.method, "SAT enumeration")
+    if res.method == APPROXIMATE:
+        count = f"about {res.count:,} ({res.to_json()['guarantee']})"
+    else:
+        count = f"{res.count:,}" + ("" if res.exact else f" at least (stopped: {res.reason})")
     r = Report("satorder count", command).header(
         p.source, _size(p), status, [("answers", count), ("method", how),
                                      ("verified", _verified(res.verified))])
@@ -263,4 +267,47 @@ def bench_report(rows, backends, summary, series, problems, unverified, timeout,
               row.get("comparable_pairs"), row.get("peak_mb"))
              for row in sorted(rows, key=lambda x: (x["instance"], x["backend"]))],
             numeric={"seconds", "items", "comparable pairs", "peak MB"}, limit=5000)
+    return r.caution()
+
+
+def settled_report(res, command: str | None = None) -> Report:
+    """The page of ``satorder settled``: the settled pairs, the free pairs with their shares."""
+    from satorder.render.settled_text import answers_text
+
+    p = res.problem
+    names = p.items
+    c = res.counts()
+    facts = [("answers", answers_text(res)), ("method", res.method),
+             ("settled pairs", c["settled_before"] + c["settled_unordered"]),
+             ("free pairs", c["free"]), ("verified", _verified(res.verified))]
+    r = Report("satorder settled", command).header(p.source, _size(p), res.status, facts)
+    if res.status == FEASIBLE:
+        import heapq
+
+        shown = 2000  # rows of the table; the first ones in this order, found without sorting
+        rows = heapq.nsmallest(shown, res.pairs(), key=lambda t: (
+            not t[5], -max(t[2:5]), names[t[0]], names[t[1]]))
+        r.section("What the evidence settles", "A pair is settled when every answer gives "
+                  "it the same relation; the others are free, and their shares say in what "
+                  "part of the answers each relation holds.")
+        r.table(["a", "b", "a before b", "b before a", "unordered", "settled"],
+                [(names[a], names[b], x, y, z, "yes" if s else "no")
+                 for a, b, x, y, z, s in rows],
+                caption="Every pair that may be ordered, settled pairs first",
+                numeric={"a before b", "b before a", "unordered"}, limit=shown)
+        total = sum(c.values())
+        if total > shown:
+            r.text(f"… and {total - shown:,} more pairs not shown (the JSON output lists every "
+                   "pair).", note=True)
+        if res.checks:
+            r.table(["check"], [(t,) for t in res.checks],
+                    caption="Checks by code that did not compute the shares")
+    elif res.status == INFEASIBLE:
+        r.section("No answer", f"No order meets every requirement. Run satorder explain "
+                  f"{p.source} for a minimal core and a derivation.")
+    else:
+        r.section("No verdict", "No verdict within the time limit; try a longer --time-limit.")
+    for note in res.notes:
+        r.text(f"Note: {note}", note=True)
+    r.requirements(p, core=res.answer.core if res.answer is not None else None)
     return r.caution()

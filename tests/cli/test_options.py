@@ -142,7 +142,9 @@ def test_version_and_small_solve_import_no_heavy_module(tmp_path):
              "sys.stderr.write('HEAVY ' + ' '.join(heavy) + '\\n')\nraise SystemExit(code)\n")
     got = {}
     for name, argv in (("version", ["--version"]), ("solve", ["solve", str(f)]),
-                       ("json", ["solve", str(f), "--json"])):
+                       ("json", ["solve", str(f), "--json"]),
+                       ("settled", ["settled", str(f), "--json"]),
+                       ("sample", ["sample", str(f), "-k", "2"])):
         proc = subprocess.run([sys.executable, "-c", probe, *argv], capture_output=True,
                               text=True)
         assert proc.returncode == 0, proc.stderr
@@ -151,6 +153,7 @@ def test_version_and_small_solve_import_no_heavy_module(tmp_path):
     assert got["version"] == set()
     assert got["solve"] == {"rich"}  # the text output uses rich
     assert got["json"] == set()
+    assert got["settled"] == set() and got["sample"] == set()  # decomposition, listing check
     proc = subprocess.run([sys.executable, "-c",
                            "import sys\nfrom satorder.cli.main import parse\n"
                            "parse(['--help'])"], capture_output=True, text=True)

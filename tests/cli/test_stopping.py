@@ -52,7 +52,8 @@ def test_ctrl_c_two_seconds_into_count_gives_a_lower_bound(tmp_path):
     f = _problem(tmp_path)
     err = tmp_path / "err.txt"
     with open(err, "w") as err_file:
-        proc = _start(["count", f, "--json"], stdout=subprocess.PIPE, stderr=err_file)
+        proc = _start(["count", f, "--json", "--method", "enumeration"], stdout=subprocess.PIPE,
+                      stderr=err_file)
         # the estimate of the work is printed on stderr just before the listing starts
         assert _wait_for(lambda: "exponential work" in err.read_text()), err.read_text()
         time.sleep(2.0)
@@ -98,11 +99,16 @@ def test_count_and_orders_at_the_time_limit_exit_3_with_what_they_found(tmp_path
 
 def test_count_with_a_limit_exits_0_and_small_counts_give_no_warning(tmp_path, capsys):
     f = _problem(tmp_path)
-    assert main(["count", f, "--json", "--limit", "5"]) == 0
+    assert main(["count", f, "--json", "--limit", "5", "--method", "enumeration"]) == 0
     captured = capsys.readouterr()
     doc = json.loads(captured.out)
     assert doc == {**doc, "count": 5, "exact": False, "stopped": "limit"}
     assert "exponential work" in captured.err
+    # the default method lists a bounded number of answers, then counts approximately
+    assert main(["count", f, "--json", "--limit", "5"]) == 0
+    captured = capsys.readouterr()
+    assert json.loads(captured.out)["count"] == 5
+    assert "counted approximately beyond" in captured.err
     small = _problem(tmp_path, {"items": ["a", "b", "c"], "incomparable": []}, "small.json")
     assert main(["count", small, "--json"]) == 0
     captured = capsys.readouterr()
