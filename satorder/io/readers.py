@@ -188,9 +188,10 @@ def problem_from_dict(doc, source: str = "<dict>") -> Problem:
 
 def _bulk_comparable(b: ProblemBuilder, value) -> bool:
     """Add a long "comparable" list at once when every entry is a pair of two different
-    non-empty strings (item ids by one dictionary pass, adjacency cut from one sorted numpy
-    array, as for edge lists); ``False`` (nothing added) otherwise, and the entries are then
-    read one by one, which names the first bad one.  Only for ``"incomparable": "others"``:
+    non-empty strings and no pair is repeated (item ids by one dictionary pass, adjacency cut
+    from one sorted numpy array, as for edge lists); ``False`` (nothing added) otherwise, and
+    the entries are then read one by one, which names the first bad one (or merges a repeat
+    with its note).  Only for ``"incomparable": "others"``:
     no pair can then be listed both ways, so the per-pair bookkeeping is not needed."""
     if not isinstance(value, list) or len(value) < 1000:
         return False
@@ -219,10 +220,6 @@ def _bulk_comparable(b: ProblemBuilder, value) -> bool:
     first, second = ids[0::2], ids[1::2]
     if (first == second).any():
         return False  # a pair naming one item twice: the slow path reports it
-    width = start + len(new)
-    keys = np.minimum(first, second) * width + np.maximum(first, second)
-    if len(np.unique(keys)) != len(keys):
-        return False  # a repeated pair: the slow path merges it and notes where
     # every name is a non-empty string already: register the new items in one go
     b.items.extend(new)
     index.update(zip(new, range(start, start + len(new))))
@@ -238,6 +235,15 @@ def _bulk_comparable(b: ProblemBuilder, value) -> bool:
     for v, (s, e) in enumerate(zip(starts, ends)):
         if e > s:
             adj[v].update(dst_l[s:e])
+    if sum(map(len, adj)) != len(dst_l):
+        # a repeated pair (the sets merged it): undo, and let the slow path merge it with a
+        # note saying where (the adjacency was empty before: only items were named)
+        for s in adj:
+            s.clear()
+        del b.items[start:], adj[start:]
+        for name in new:
+            del index[name]
+        return False
     return True
 
 
