@@ -55,8 +55,8 @@ from satorder.graph.arcs import arc_requirements, place_arcs
 from satorder.graph.forcing import (
     ForcingResult,
     ForcingStep,
-    _gamma_witness,
     implication_ties,
+    shortcut_chain,
     tie_graph,
 )
 from satorder.graph.modular import PRIME, SERIES, modular_decomposition
@@ -380,14 +380,4 @@ def gamma_path(adj: list[set[int]], items: list[int], src: Arc, dst: Arc):
         x, y = items[int(lo[e])], items[int(hi[e])]
         return (x, y) if node % 2 == 0 else (y, x)
 
-    arcs = [arc(v) for v in path]
-    steps = [ForcingStep(arcs[0], None)]
-    i = 0
-    while i < len(arcs) - 1:
-        for j in range(len(arcs) - 1, i, -1):
-            witness = _gamma_witness(adj, arcs[i], arcs[j])
-            if witness is not None:
-                break
-        steps.append(ForcingStep(arcs[j], witness))
-        i = j
-    return steps
+    return shortcut_chain(adj, [arc(v) for v in path])

@@ -390,9 +390,13 @@ def _conflict_chain(adj, graph, e: int, lo: np.ndarray, hi: np.ndarray) -> list[
         a, b = int(lo[k]), int(hi[k])
         return (a, b) if node % 2 == 0 else (b, a)
 
-    # every tie is a single Γ step; shortcut to the farthest later arc forced directly, since
-    # a spanning forest of ties can make detours that the Γ relation itself does not need
-    arcs = [arc(node) for node in path]
+    return shortcut_chain(adj, [arc(node) for node in path])
+
+
+def shortcut_chain(adj, arcs: list[Arc]) -> list[ForcingStep]:
+    """Forcing steps along ``arcs`` (each Γ-forced by the one before it), shortcut to the
+    farthest later arc forced directly: a spanning forest of ties can make detours that the
+    Γ relation itself does not need."""
     steps = [ForcingStep(arcs[0], None)]
     i = 0
     while i < len(arcs) - 1:

@@ -224,18 +224,11 @@ def _bulk_comparable(b: ProblemBuilder, value) -> bool:
     b.items.extend(new)
     index.update(zip(new, range(start, start + len(new))))
     b.adj.extend(set() for _ in new)
-    n = len(b.items)
-    src = np.concatenate([first, second])
-    dst = np.concatenate([second, first])
-    order = np.argsort(src, kind="stable")
-    dst_l = dst[order].tolist()
-    ends = np.cumsum(np.bincount(src, minlength=n)).tolist()
-    starts = [0] + ends[:-1]
     adj = b.adj
-    for v, (s, e) in enumerate(zip(starts, ends)):
-        if e > s:
-            adj[v].update(dst_l[s:e])
-    if sum(map(len, adj)) != len(dst_l):
+    for v, row in enumerate(_neighbour_rows(first, second, len(b.items))):
+        if row:
+            adj[v].update(row)
+    if sum(map(len, adj)) != 2 * len(first):
         # a repeated pair (the sets merged it): undo, and let the slow path merge it with a
         # note saying where (the adjacency was empty before: only items were named)
         for s in adj:
@@ -245,6 +238,18 @@ def _bulk_comparable(b: ProblemBuilder, value) -> bool:
             del index[name]
         return False
     return True
+
+
+def _neighbour_rows(first, second, n: int):
+    """For each item ``0..n-1``, the list of its partners in the pairs ``(first[k],
+    second[k])`` (numpy arrays), both ways round: one stable sort, no per-pair dictionary."""
+    import numpy as np
+
+    src = np.concatenate([first, second])
+    dst = np.concatenate([second, first])
+    dst_l = dst[np.argsort(src, kind="stable")].tolist()
+    ends = np.cumsum(np.bincount(src, minlength=n)).tolist()
+    return (dst_l[s:e] for s, e in zip([0] + ends[:-1], ends))
 
 
 # --------------------------------------------------------------------------- edge lists
@@ -338,13 +343,7 @@ def parse_edge_list_text(text: str, source: str = "<edges>") -> Problem:
             f"{source}: line {line}: pair names {items[int(a[k])]!r} twice; "
             "a pair needs two different items"
         )
-    src = np.concatenate([a, b])
-    dst = np.concatenate([b, a])
-    order = np.argsort(src, kind="stable")
-    dst_l = dst[order].tolist()
-    ends = np.cumsum(np.bincount(src, minlength=n)).tolist()
-    starts = [0] + ends[:-1]
-    adj = [set(dst_l[s:e]) for s, e in zip(starts, ends)]
+    adj = [set(row) for row in _neighbour_rows(a, b, n)]
     p = Problem(items=items, adj=adj, source=source)
     p._index = index
     repeats = len(a) - p.num_comparable
