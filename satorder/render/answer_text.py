@@ -10,6 +10,7 @@ from satorder.model.answer import Answer
 from satorder.model.order_views import covering_pairs, level_numbers, levels
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
 from satorder.model.wording import requirement_text
+from satorder.render.headline import print_headline
 
 MAX_ROWS = 40
 
@@ -57,12 +58,7 @@ def print_answer(ans: Answer, console: Console, hint_file: str | None = None,
     for an infeasible answer its core, numbered from 1."""
     p = ans.problem
     names = p.items
-    check = "[green]verified[/]" if ans.verified else "[red]not verified[/]"
-    colour = {FEASIBLE: "green", INFEASIBLE: "red"}.get(ans.status, "yellow")
-    console.print(
-        f"[bold {colour}]{ans.status.upper()}[/]  {p.n} items, {p.num_comparable} comparable "
-        f"pairs  (engine: {ans.engine}, {check})"
-    )
+    print_headline(console, ans.status, ans.verified, p, f"engine: {ans.engine}, ")
     if ans.status == FEASIBLE:
         pairs = len(ans.pairs())
         level = level_numbers(ans.succ)

@@ -10,6 +10,7 @@ from satorder.explanation.derivation import describe
 from satorder.explanation.repairs import repair_text
 from satorder.model.requirement import FEASIBLE, INFEASIBLE, Requirement, items_of
 from satorder.model.wording import requirement_text
+from satorder.render.headline import print_headline
 
 MAX_STEPS = 120
 MAX_ORDER_PAIRS = 12
@@ -32,10 +33,7 @@ def print_core(core: list[Requirement], names: list[str], console: Console,
 def print_explanation(expl, console: Console, file: str | None = None) -> None:
     p = expl.problem
     names = p.items
-    check = "[green]verified[/]" if expl.verified else "[red]not verified[/]"
-    colour = {FEASIBLE: "green", INFEASIBLE: "red"}.get(expl.status, "yellow")
-    console.print(f"[bold {colour}]{expl.status.upper()}[/]  {p.n} items, "
-                  f"{p.num_comparable} comparable pairs  ({check})")
+    print_headline(console, expl.status, expl.verified, p)
     if expl.status == FEASIBLE:
         hint = f" Run [bold]satorder solve {file}[/] to see it." if file else ""
         console.print(f"An order meeting every requirement exists; nothing to explain.{hint}")

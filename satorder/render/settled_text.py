@@ -10,6 +10,7 @@ from rich.table import Table
 from satorder.explanation.derivation import describe
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
 from satorder.model.wording import requirement_text
+from satorder.render.headline import print_headline
 
 SHOW = 60  # pairs listed per group before "… and N more"
 
@@ -33,10 +34,7 @@ def answers_text(res) -> str:
 def print_settled(res, console: Console, show: int = SHOW) -> None:
     p = res.problem
     names = p.items
-    check = "[green]verified[/]" if res.verified else "[red]not verified[/]"
-    colour = {FEASIBLE: "green", INFEASIBLE: "red"}.get(res.status, "yellow")
-    console.print(f"[bold {colour}]{res.status.upper()}[/]  {p.n} items, {p.num_comparable} "
-                  f"comparable pairs  ({check})")
+    print_headline(console, res.status, res.verified, p)
     if res.status == INFEASIBLE:
         _print_no_answer(res.answer, names, console, p.source)
         return
