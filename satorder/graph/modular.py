@@ -117,7 +117,42 @@ def modular_decomposition(adj: list[set[int]], seed: int = 0) -> ModuleNode | No
     n = len(adj)
     if n == 0:
         return None
-    return _Decomposer(adj, random.Random(seed)).run()
+    comps = _connected_components(adj)
+    if len(comps) == 1:
+        return _Decomposer(adj, random.Random(seed)).run()
+    # a disconnected graph: a parallel root over its components, each decomposed on its own
+    # (the same tree; the refinement then never filters neighbours by context)
+    children = []
+    for comp in comps:
+        if len(comp) == 1:
+            children.append(ModuleNode(LEAF, item=comp[0]))
+            continue
+        pos = {v: i for i, v in enumerate(comp)}
+        sub = [{pos[u] for u in adj[v]} for v in comp]
+        tree = _Decomposer(sub, random.Random(seed)).run()
+        for node in tree.nodes():
+            if node.kind == LEAF:
+                node.item = comp[node.item]
+        children.append(tree)
+    return ModuleNode(PARALLEL, children)
+
+
+def _connected_components(adj: list[set[int]]) -> list[list[int]]:
+    """The items of each connected component, in order of their smallest item."""
+    seen = bytearray(len(adj))
+    comps = []
+    for v in range(len(adj)):
+        if seen[v]:
+            continue
+        seen[v] = 1
+        comp = [v]
+        for x in comp:  # breadth-first: the list grows while it is read
+            for y in adj[x]:
+                if not seen[y]:
+                    seen[y] = 1
+                    comp.append(y)
+        comps.append(comp)
+    return comps
 
 
 class _Decomposer:
