@@ -117,19 +117,29 @@ def modular_decomposition(adj: list[set[int]], seed: int = 0) -> ModuleNode | No
     n = len(adj)
     if n == 0:
         return None
-    comps = _connected_components(adj)
+    from satorder.graph.forcing import use_kernels
+
+    compiled = use_kernels(adj.total() // 2 if hasattr(adj, "total") else
+                           sum(len(s) for s in adj) // 2)
+    if compiled:  # the components laid out by numpy, each refined first by the kernel
+        from satorder.graph.modular_kernel import component_graphs
+
+        comps = component_graphs(adj)
+    else:
+        comps = [(comp, None, None) for comp in _connected_components(adj)]
     if len(comps) == 1:
-        return _Decomposer(adj, random.Random(seed)).run()
+        return _Decomposer(adj, random.Random(seed), compiled).run()
     # a disconnected graph: a parallel root over its components, each decomposed on its own
     # (the same tree; the refinement then never filters neighbours by context)
     children = []
-    for comp in comps:
+    for comp, sub, csr in comps:
         if len(comp) == 1:
             children.append(ModuleNode(LEAF, item=comp[0]))
             continue
-        pos = {v: i for i, v in enumerate(comp)}
-        sub = [{pos[u] for u in adj[v]} for v in comp]
-        tree = _Decomposer(sub, random.Random(seed)).run()
+        if sub is None:
+            pos = {v: i for i, v in enumerate(comp)}
+            sub = [{pos[u] for u in adj[v]} for v in comp]
+        tree = _Decomposer(sub, random.Random(seed), compiled, csr).run()
         for node in tree.nodes():
             if node.kind == LEAF:
                 node.item = comp[node.item]
@@ -158,8 +168,12 @@ def _connected_components(adj: list[set[int]]) -> list[list[int]]:
 class _Decomposer:
     """Iterative implementation of the three steps in the module docstring."""
 
-    def __init__(self, adj: list[set[int]], rng: random.Random):
+    def __init__(self, adj: list[set[int]], rng: random.Random, compiled: bool = False,
+                 csr=None):
         self.adj = adj
+        self.compiled = compiled  # the first refinement (of the whole graph) by the kernel
+        self.csr = csr  # adj as CSR arrays, when the caller has them
+        self.first_nq: dict[int, set[int]] | None = None  # the first spine's quotient
         self.rng = rng
         n = len(adj)
         self.blk = [0] * n  # current part id of each item
@@ -221,6 +235,8 @@ class _Decomposer:
         adj, blk, owner, mark = self.adj, self.blk, self.owner, self.mark
         owner[s] = ctx
         whole = len(self.parts[s]) == len(adj)  # no need to filter neighbours by context
+        if whole and self.compiled and len(adj) > 2:
+            return self._refine_compiled(s, v, ctx)
         self.parts[s].discard(v)
         pv = self._new_part((v,), ctx)
         created: list[int] = [s]
@@ -270,15 +286,30 @@ class _Decomposer:
                     queue.append(g)
         return pv, [p for p in created if self.parts[p]]
 
+    def _refine_compiled(self, s: int, v: int, ctx: int) -> tuple[int, list[int]]:
+        """:meth:`_refine` of the whole (connected) graph by the compiled twin
+        (:func:`satorder.graph.modular_kernel.first_parts`), with the quotient the spine
+        needs: the same parts, in another order."""
+        from satorder.graph.modular_kernel import first_parts
+
+        pv = self._new_part((v,), ctx)
+        groups, self.first_nq = first_parts(self.csr or self.adj, v, s, len(self.parts))
+        self.parts[s] = set(groups[0])  # every item's part id is s until the others are made
+        self.cap[s] = len(groups[0])
+        return pv, [s] + [self._new_part(g, ctx) for g in groups[1:]]
+
     # ---------------------------------------------------------------- the spine
     def _spine(self, v: int, pids: list[int], reps: dict[int, int], ctx: int, whole: bool):
         """Layers ``M1 - M0, M2 - M1, ...`` of the strong modules containing ``v``, each a list
         of part ids, innermost first; and the set of parts adjacent to ``v``."""
         adj, blk, owner = self.adj, self.blk, self.owner
-        adj_v = adj[v]
-        nq: dict[int, set[int]] = {}
+        adj_v = set(adj[v])  # rows may be lists
+        nq: dict[int, set[int]] = self.first_nq or {}
+        self.first_nq = None
         for p in pids:
             r = reps[p]
+            if p in nq:
+                continue
             if whole:
                 nq[p] = {blk[u] for u in adj[r] if u != v} - {p}
             else:

@@ -196,3 +196,44 @@ def test_empty_and_single():
     t = modular_decomposition([set()])
     assert t.kind == LEAF and t.items == {0}
     assert count_transitive_orientations([]) == 1
+
+
+@pytest.fixture
+def kernels(monkeypatch):
+    """Large-graph path at any size: components laid out by numpy, each refined first by the
+    compiled loop (satorder.graph.modular_kernel)."""
+    pytest.importorskip("numba")
+    import satorder.graph.forcing as forcing
+
+    def use(flag: bool) -> None:
+        monkeypatch.setattr(forcing, "use_kernels", lambda pairs: flag)
+
+    use(True)
+    return use
+
+
+@pytest.mark.parametrize("n", range(3, 10))
+def test_compiled_first_refinement_against_brute_force(n, kernels):
+    rng = random.Random(300 + n)
+    for trial in range(30):
+        adj = random_graph(n, rng.random(), rng) if trial % 2 else nested_graph(n, rng)
+        check_tree(adj, seed=trial)
+
+
+def test_compiled_and_python_trees_agree_on_larger_graphs(kernels):
+    rng = random.Random(17)
+    for trial in range(12):
+        # several components (the layout of each by numpy) or one (the whole graph's arrays)
+        parts = [nested_graph(rng.randint(1, 60), rng) if rng.random() < 0.7 else
+                 random_graph(rng.randint(1, 40), rng.random(), rng)
+                 for _ in range(rng.choice([1, 4]))]
+        adj: list[set[int]] = []
+        for part in parts:
+            base = len(adj)
+            adj.extend({base + u for u in row} for row in part)
+        trees = []
+        for flag in (True, False):
+            kernels(flag)
+            tree = modular_decomposition(adj, seed=trial)
+            trees.append({(node.items, node.kind) for node in tree.nodes()})
+        assert trees[0] == trees[1]
