@@ -127,6 +127,11 @@ def _instances(work: str, quick: bool) -> dict[str, str]:
         "dense-orders+5-cycle": lambda p: generate.write_dense_orders(
             p, blocks=500 // scale, seed=3, plant_hole=True, joins=3),
     }
+    return _generated(specs, work, quick)
+
+
+def _generated(specs: dict, work: str, quick: bool) -> dict[str, str]:
+    """Paths of the instances named in ``specs`` (name -> writer), each written on first use."""
     paths = {}
     for name, make in specs.items():
         path = os.path.join(work, f"{name}{'-quick' if quick else ''}.txt")
@@ -196,14 +201,7 @@ def _huge_instances(work: str, quick: bool) -> dict[str, str]:
         "dense-orders-10M": lambda p: generate.write_dense_orders(
             p, blocks=2_000 // scale, degree=40.0, seed=12),
     }
-    paths = {}
-    for name, make in specs.items():
-        path = os.path.join(work, f"{name}{'-quick' if quick else ''}.txt")
-        if not os.path.exists(path):
-            with console.status(f"generating {path}"):
-                make(path)
-        paths[name] = path
-    return paths
+    return _generated(specs, work, quick)
 
 
 def huge_targets(work: str, quick: bool) -> list[dict]:

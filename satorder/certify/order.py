@@ -80,9 +80,8 @@ def check_order(problem, succ: list[set[int]]) -> None:
                 raise CertificateError(f"order lists {names[b]} above {names[a]} twice")
             raise CertificateError(f"{names[a]} < {names[b]} but the pair must stay unordered")
         # distinct ordered pairs, all comparable, antisymmetric: all ordered iff the counts match
-        if len(sidx) == len(adj_arrays[1]) // 2:
-            return
-        _name_unordered_pair(problem, succ)
+        if len(sidx) != len(adj_arrays[1]) // 2:
+            _name_unordered_pair(problem, succ)
         return
     if len(succ) != n:
         raise CertificateError(f"order covers {len(succ)} items, problem has {n}")

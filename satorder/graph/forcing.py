@@ -46,6 +46,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 from satorder.jit import HAVE_NUMBA
+from satorder.model.problem import pair_count
 
 if TYPE_CHECKING:  # numpy is imported where arrays are made: small graphs never load it
     import numpy as np
@@ -128,13 +129,6 @@ class ForcingResult:
         heads = np.where(self.up, self.hi, self.lo)
         self.succ = CsrSets.from_arcs(self.n, tails, heads)
         return self.succ
-
-
-def pair_count(adj) -> int:
-    """Number of edges of ``adj`` without turning compact adjacency into sets."""
-    if getattr(adj, "is_compact", False):
-        return adj.total() // 2
-    return sum(map(len, adj)) // 2
 
 
 def _edge_arrays(adj: list[set[int]]):

@@ -118,9 +118,9 @@ def modular_decomposition(adj: list[set[int]], seed: int = 0) -> ModuleNode | No
     if n == 0:
         return None
     from satorder.graph.forcing import use_kernels
+    from satorder.model.problem import pair_count
 
-    compiled = use_kernels(adj.total() // 2 if hasattr(adj, "total") else
-                           sum(len(s) for s in adj) // 2)
+    compiled = use_kernels(pair_count(adj))
     if compiled:  # the components laid out by numpy, each refined first by the kernel
         from satorder.graph.modular_kernel import component_graphs
 

@@ -38,6 +38,14 @@ from satorder.model.requirement import Kind, Requirement
 Arc = tuple[int, int]
 
 
+def pair_count(adj) -> int:
+    """Number of pairs in the symmetric adjacency ``adj`` (a list of sets, or compact
+    :class:`~satorder.model.adjacency.CsrSets`, counted without turning it into sets)."""
+    if getattr(adj, "is_compact", False):
+        return adj.total() // 2
+    return sum(map(len, adj)) // 2
+
+
 @dataclass
 class Problem:
     """Items plus hard requirements (and optional preferences) over pairs of items.
@@ -74,9 +82,7 @@ class Problem:
 
     @property
     def num_comparable(self) -> int:
-        if getattr(self.adj, "is_compact", False):  # CsrSets (large edge lists): no sets made
-            return self.adj.total() // 2
-        return sum(len(s) for s in self.adj) // 2
+        return pair_count(self.adj)
 
     @property
     def num_incomparable(self) -> int:

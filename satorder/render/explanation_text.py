@@ -30,6 +30,22 @@ def print_core(core: list[Requirement], names: list[str], console: Console,
         console.print(f"… and {len(core) - limit} more (use --json).")
 
 
+def print_derivation(console: Console, steps, core, names, rows: str) -> None:
+    """A replayed derivation, one numbered step a line (cases indented), each citing earlier
+    steps and the ``rows`` of the table above; at most :data:`MAX_STEPS` steps."""
+    console.print("\n[bold]Derivation[/] (cases are indented; each step cites earlier steps "
+                  f"and {rows}):")
+    for st in steps[:MAX_STEPS]:
+        claim, why = describe(st, core, names)
+        style = "bold red" if st.arc is None else ("cyan" if st.rule == "assume" else "")
+        body = f"[{style}]{claim}[/]" if style else claim
+        console.print(f"  {st.number:>3}. {'    ' * st.depth}{body}   [dim]{why}[/]",
+                      highlight=False)
+    if len(steps) > MAX_STEPS:
+        console.print(f"  … {len(steps) - MAX_STEPS} more steps (use --json).")
+    console.print("  [dim]Every step was replayed by the independent checker.[/]")
+
+
 def print_explanation(expl, console: Console, file: str | None = None) -> None:
     p = expl.problem
     names = p.items
@@ -58,17 +74,7 @@ def print_explanation(expl, console: Console, file: str | None = None) -> None:
             "induce a subgraph with no transitive orientation; leave out any one of them and "
             "one exists.")
     if expl.steps is not None:
-        console.print("\n[bold]Derivation[/] (cases are indented; each step cites earlier steps "
-                      "and core rows):")
-        for st in expl.steps[:MAX_STEPS]:
-            claim, why = describe(st, core, names)
-            style = "bold red" if st.arc is None else ("cyan" if st.rule == "assume" else "")
-            body = f"[{style}]{claim}[/]" if style else claim
-            console.print(f"  {st.number:>3}. {'    ' * st.depth}{body}   [dim]{why}[/]",
-                          highlight=False)
-        if len(expl.steps) > MAX_STEPS:
-            console.print(f"  … {len(expl.steps) - MAX_STEPS} more steps (use --json).")
-        console.print("  [dim]Every step was replayed by the independent checker.[/]")
+        print_derivation(console, expl.steps, core, names, "core rows")
     if expl.smallest is not None:
         s = expl.smallest
         if s.get("proved"):

@@ -7,7 +7,6 @@ from __future__ import annotations
 from rich.console import Console
 from rich.table import Table
 
-from satorder.explanation.derivation import describe
 from satorder.model.requirement import FEASIBLE, INFEASIBLE
 from satorder.model.wording import requirement_text
 from satorder.render.headline import print_headline
@@ -86,7 +85,8 @@ WORDS = {"before": "{a} comes before {b}", "after": "{b} comes before {a}",
 
 
 def print_why(why, console: Console) -> None:
-    from satorder.render.explanation_text import MAX_STEPS  # loads the SAT layer: --why only
+    # loads the SAT layer: --why only
+    from satorder.render.explanation_text import print_derivation
 
     names = why.problem.items
     a, b = (names[v] for v in why.pair)
@@ -127,17 +127,7 @@ def print_why(why, console: Console) -> None:
         table.add_row(str(k), requirement_text(r, sn) + mark)
     console.print(table)
     if why.steps is not None:
-        console.print("\n[bold]Derivation[/] (cases are indented; each step cites earlier "
-                      "steps and the rows above):")
-        for st in why.steps[:MAX_STEPS]:
-            claim, because = describe(st, why.core, sn)
-            style = "bold red" if st.arc is None else ("cyan" if st.rule == "assume" else "")
-            body = f"[{style}]{claim}[/]" if style else claim
-            console.print(f"  {st.number:>3}. {'    ' * st.depth}{body}   [dim]{because}[/]",
-                          highlight=False)
-        if len(why.steps) > MAX_STEPS:
-            console.print(f"  … {len(why.steps) - MAX_STEPS} more steps (use --json).")
-        console.print("  [dim]Every step was replayed by the independent checker.[/]")
+        print_derivation(console, why.steps, why.core, sn, "the rows above")
     for note in why.notes:
         console.print(f"[yellow]Note: {note}[/]")
 
