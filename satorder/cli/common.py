@@ -81,11 +81,13 @@ def check_output_path(path: str | None, *inputs: str) -> None:
             raise UsageError(f"{path}: output would overwrite the input file; choose another name")
 
 
-def check_draw(path, source):
-    """Refuse a ``--draw`` target that is not an SVG file name."""
-    check_output_path(path, source)
+def check_draw(path: str | None, source: str) -> None:
+    """Refuse a ``--draw`` target that is not an SVG file name or would overwrite the input."""
+    if path is None:
+        return
     if not path.lower().endswith(".svg"):
-        raise InputError(f"{path}: --draw writes SVG; give a file name ending in .svg")
+        raise UsageError(f"{path}: --draw writes SVG; give a file name ending in .svg")
+    check_output_path(path, source)
 
 
 def write_pictures(path, source, succ, names, measures=None, weights=None,

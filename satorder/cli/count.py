@@ -14,6 +14,7 @@ from rich.progress import Progress, SpinnerColumn, TextColumn, TimeElapsedColumn
 from satorder.cli import options
 from satorder.cli.common import (
     UsageError,
+    check_draw,
     check_output_path,
     check_report_path,
     command_line,
@@ -95,13 +96,10 @@ def run(args) -> int:
     check_report_path(args.report, args.file)
     if args.limit is not None and args.limit < 1:
         raise UsageError(f"--limit must be at least 1, got {args.limit}")
+    check_draw(args.draw, args.file)
     problem = load(args.file)
-    if args.draw:
-        check_output_path(args.draw, args.file)
-        if not args.draw.lower().endswith(".svg"):
-            raise UsageError(f"{args.draw}: --draw writes SVG; give a file name ending in .svg")
-        if problem.n > DRAW_LIMIT or problem.n == 0:
-            raise UsageError(f"{args.file}: {problem.n} items; --draw needs 1 to {DRAW_LIMIT}")
+    if args.draw and not 0 < problem.n <= DRAW_LIMIT:
+        raise UsageError(f"{args.file}: {problem.n} items; --draw needs 1 to {DRAW_LIMIT}")
     with Progress(SpinnerColumn(), TextColumn("{task.description}"), TimeElapsedColumn(),
                   console=err.real, transient=True, disable=args.json) as bar:
         task = bar.add_task("counting…", total=None)

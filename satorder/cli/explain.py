@@ -10,6 +10,7 @@ from __future__ import annotations
 from satorder.cli import options
 from satorder.cli.common import (
     UsageError,
+    check_draw,
     check_output_path,
     check_report_path,
     command_line,
@@ -48,9 +49,7 @@ def add_parser(sub):
 def run(args) -> int:
     if args.repairs < 0:
         raise UsageError(f"--repairs must be 0 or more, got {args.repairs}")
-    if args.draw and not args.draw.lower().endswith(".svg"):
-        raise UsageError(f"--draw {args.draw}: the picture is SVG; give a name ending in .svg")
-    check_output_path(args.draw, args.file)
+    check_draw(args.draw, args.file)
     check_output_path(args.out, args.file)
     check_report_path(args.report, args.file)
     problem = load(args.file)

@@ -59,8 +59,7 @@ def run(args) -> int:
     check_output_path(args.out, args.file)
     check_report_path(args.report, args.file)
     problem = load(args.file)
-    if args.draw:
-        check_draw(args.draw, args.file)
+    check_draw(args.draw, args.file)
     with err.status("finding the order…"):
         ans = solve(problem, engine=args.engine, solver=args.solver,
                     time_limit=args.time_limit)
