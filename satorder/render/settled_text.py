@@ -22,12 +22,16 @@ def answers_text(res) -> str:
     """How many answers, and how sure the number is."""
     if res.answers is None:
         return "an unknown number of answers"
-    count = f"{res.answers:,}" if len(str(res.answers)) <= 30 else f"{res.answers:.3e}"
+    digits = str(res.answers)
+    # past 30 digits in scientific notation, from the digits (a float overflows past 1e308)
+    count = f"{res.answers:,}" if len(digits) <= 30 else \
+        f"{digits[0]}.{digits[1:4]}e+{len(digits) - 1}"
+    noun = "answer" if res.answers == 1 else "answers"
     if res.method == "approximate":
-        return (f"about {count} answers (approximate count: within a factor "
+        return (f"about {count} {noun} (approximate count: within a factor "
                 f"{1 + res.epsilon:g} with probability {1 - res.delta:g}; shares from "
                 f"{res.samples} almost-uniform samples)")
-    return f"{count} answers (exact, by {res.method})"
+    return f"{count} {noun} (exact, by {res.method})"
 
 
 def print_settled(res, console: Console, show: int = SHOW) -> None:

@@ -172,3 +172,16 @@ def test_readme_worked_example_is_what_the_command_prints(tmp_path, capsys):
             argv = command[len("$ satorder "):].replace("fen.json", str(tmp_path / "fen.json"))
             assert main(argv.split()) == 0
             assert capsys.readouterr().out == shown, command
+
+
+def test_answer_counts_past_float_range_print_in_scientific_notation():
+    # exact counts of large problems run to hundreds of digits (a 50,000-item blocks problem
+    # admits about 7e383 orders): the text must not go through a float, which overflows
+    from types import SimpleNamespace
+
+    from satorder.render.settled_text import answers_text
+
+    res = SimpleNamespace(answers=7 * 10**383 + 12345, method="modular-decomposition")
+    assert answers_text(res) == "7.000e+383 answers (exact, by modular-decomposition)"
+    res.answers = 1
+    assert answers_text(res) == "1 answer (exact, by modular-decomposition)"
