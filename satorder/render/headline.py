@@ -13,5 +13,5 @@ def print_headline(console: Console, status: str, verified: bool, problem,
     whether the independent checks accepted it (after ``detail``)."""
     check = "[green]verified[/]" if verified else "[red]not verified[/]"
     colour = {FEASIBLE: "green", INFEASIBLE: "red"}.get(status, "yellow")
-    console.print(f"[bold {colour}]{status.upper()}[/]  {problem.n} items, "
-                  f"{problem.num_comparable} comparable pairs  ({detail}{check})")
+    console.print(f"[bold {colour}]{status.upper()}[/]  {problem.n:,} items, "
+                  f"{problem.num_comparable:,} comparable pairs  ({detail}{check})")
